@@ -120,28 +120,25 @@ export function turningSignature(coords: Float64Array, samples = 512): TurningSi
   }
   const f = turningFunction(coords);
   const values = new Float64Array(samples);
-  const { breaks, values: fv } = f;
-  // sweep pieces and bins together, once for the means and once for the residual
-  for (let pass = 0; pass < 2; pass++) {
-    let piece = 0;
-    let residual2 = 0;
-    for (let k = 0; k < samples; k++) {
-      const lo = k / samples;
-      const hi = (k + 1) / samples;
-      let acc = 0;
-      while (breaks[piece + 1] <= lo && piece < fv.length - 1) piece++;
-      for (let p = piece; p < fv.length && breaks[p] < hi; p++) {
-        const w = Math.min(hi, breaks[p + 1]) - Math.max(lo, breaks[p]);
-        if (w <= 0) continue;
-        if (pass === 0) acc += w * fv[p];
-        else acc += w * (fv[p] - values[k]) ** 2;
-      }
-      if (pass === 0) values[k] = acc * samples;
-      else residual2 += acc;
+  binIntegrals(f, samples, (k, w, v) => (values[k] += w * v * samples));
+  let residual2 = 0;
+  binIntegrals(f, samples, (k, w, v) => (residual2 += w * (v - values[k]) ** 2));
+  return { samples, values, mean: f.integral, residual: Math.sqrt(residual2) };
+}
+
+/** Calls `add(bin, width, value)` for every overlap of a piece of Θ with one of `samples` equal bins. */
+function binIntegrals(f: TurningFunction, samples: number, add: (bin: number, width: number, value: number) => void): void {
+  const { breaks, values } = f;
+  let piece = 0;
+  for (let k = 0; k < samples; k++) {
+    const lo = k / samples;
+    const hi = (k + 1) / samples;
+    while (piece < values.length - 1 && breaks[piece + 1] <= lo) piece++;
+    for (let p = piece; p < values.length && breaks[p] < hi; p++) {
+      const w = Math.min(hi, breaks[p + 1]) - Math.max(lo, breaks[p]);
+      if (w > 0) add(k, w, values[p]);
     }
-    if (pass === 1) return { samples, values, mean: f.integral, residual: Math.sqrt(residual2) };
   }
-  throw new Error('unreachable');
 }
 
 /**

@@ -1,0 +1,252 @@
+import type { TrackParams } from '../params/types.js';
+import type { TurnSplit } from '../params/feasibility.js';
+import { MIN_STRAIGHT_M } from '../params/feasibility.js';
+import type { LoopNoise } from '../random/noise.js';
+import type { Rng } from '../random/streams.js';
+import { normal, pickWeighted, uniform } from '../random/streams.js';
+import { fitAngles } from './angles.js';
+import { solveStraights } from './closure.js';
+import { drawCornerShape, type ShapeKind } from './corner-shape.js';
+import type { Plan, PlannedCorner } from './plan-types.js';
+import { cornerDisplacement } from './trace.js';
+
+const DEG = Math.PI / 180;
+
+/**
+ * Peak curvature is planned this much below 1 / minCornerRadiusM, so that the spline through
+ * the traced control points (which deviates by a fraction of a percent, see curve tests) keeps
+ * the radius limit.
+ */
+export const RADIUS_SAFETY = 1.02;
+
+/** Trace step used for the closure solve and the coarse check, metres. */
+export const PLAN_STEP_M = 2;
+
+/**
+ * Feature templates: short runs of corners joined by short straights, in units of
+ * M (a corner turning the loop's way) and m (against it). Weights are relative draw chances.
+ */
+const TEMPLATES: readonly { readonly pattern: string; readonly weight: number }[] = [
+  { pattern: 'M', weight: 3 },
+  { pattern: 'MM', weight: 1 },
+  { pattern: 'mM', weight: 2 },
+  { pattern: 'Mm', weight: 2 },
+  { pattern: 'MmM', weight: 1.2 },
+  { pattern: 'mMm', weight: 0.6 },
+  { pattern: 'm', weight: 1.2 },
+  { pattern: 'mm', weight: 0.3 },
+];
+
+interface Draft {
+  readonly signs: (1 | -1)[];
+  /** Feature each corner belongs to; consecutive corners of one feature are joined by short straights. */
+  readonly feature: number[];
+}
+
+/**
+ * Plans one lap: groups corners into features (single corners, esses, chicanes, complexes),
+ * orders the features so that the running turning stays inside a band around an even climb,
+ * gives every corner an angle (each direction's total exact: Hopf's Umlaufsatz, ±360° net),
+ * a radius and a noise-modulated curvature profile, then solves the straights so that the
+ * lap closes at exactly the requested length.
+ *
+ * @returns the plan, or null when this draw cannot close (the caller retries with the next attempt)
+ */
+export function planLap(p: TrackParams, split: TurnSplit, rng: Rng, noise: LoopNoise): Plan | null {
+  const loopSign: 1 | -1 = split.loopSign === 0 ? (rng() < 0.5 ? 1 : -1) : split.loopSign;
+  const majorCount = loopSign > 0 ? split.leftCount : split.rightCount;
+  const minorCount = p.cornerCount - majorCount;
+  const majorTotal = (loopSign > 0 ? split.leftTurningDeg : split.rightTurningDeg) * DEG;
+  const minorTotal = (loopSign > 0 ? split.rightTurningDeg : split.leftTurningDeg) * DEG;
+
+  const draft = orderFeatures(rng, majorCount, minorCount, uniform(rng, 100, 200) * DEG, majorTotal / Math.max(1, majorCount), minorCount > 0 ? minorTotal / minorCount : 0);
+  if (draft === null) return null;
+  const n = draft.signs.length;
+  // the draft says major (+1) or minor (-1); the loop's direction turns that into left or right
+  const signs = draft.signs.map((s) => (s === 1 ? loopSign : -loopSign) as 1 | -1);
+
+  // nominal angles: a mixture from kinks to hairpins, then each direction scaled to its exact total
+  const nominal = new Float64Array(n);
+  for (let i = 0; i < n; i++) nominal[i] = drawNominalAngle(rng);
+  const majorIdx: number[] = [];
+  const minorIdx: number[] = [];
+  for (let i = 0; i < n; i++) (draft.signs[i] === 1 ? majorIdx : minorIdx).push(i);
+  const angles = new Float64Array(n);
+  const fitMajor = fitAngles(majorIdx.map((i) => nominal[i]), majorTotal);
+  majorIdx.forEach((i, k) => (angles[i] = fitMajor[k]));
+  if (minorIdx.length > 0) {
+    const fitMinor = fitAngles(minorIdx.map((i) => nominal[i]), minorTotal);
+    minorIdx.forEach((i, k) => (angles[i] = fitMinor[k]));
+  }
+
+  // shapes, then radii: a relative radius per corner, scaled so that corners take their share of the lap
+  const noiseAmp = 0.45 * p.noise;
+  const shapes = signs.map((_, i) => drawCornerShape(rng, drawShapeKind(rng), noise, i / n, noiseAmp));
+  const relRadius = new Float64Array(n);
+  const meanAngle = (majorTotal + minorTotal) / n;
+  for (let i = 0; i < n; i++) relRadius[i] = drawRelativeRadius(rng, angles[i] / meanAngle);
+  const rMin = p.minCornerRadiusM * RADIUS_SAFETY;
+  const cornerShare = uniform(rng, 0.35, 0.65);
+  const radii = fitRadii(angles, shapes.map((s) => s.mean), relRadius, rMin, cornerShare * p.lengthM, p.lengthM - n * MIN_STRAIGHT_M * 4);
+  const corners: PlannedCorner[] = [];
+  let cornerLength = 0;
+  for (let i = 0; i < n; i++) {
+    const peak = 1 / radii[i];
+    const lengthM = angles[i] / (peak * shapes[i].mean);
+    cornerLength += lengthM;
+    corners.push({ sign: signs[i], angleRad: angles[i], peakCurvature: peak, lengthM, shape: shapes[i] });
+  }
+  const straightTotal = p.lengthM - cornerLength;
+  if (straightTotal < n * MIN_STRAIGHT_M) return null;
+
+  // wishes: long straights between features (log-normal: a few long, many short), short ones inside
+  const wish = new Float64Array(n);
+  const inside = new Uint8Array(n);
+  let wishSum = 0;
+  for (let i = 0; i < n; i++) {
+    inside[i] = draft.feature[i] === draft.feature[(i + 1) % n] ? 1 : 0;
+    wish[i] = inside[i] ? uniform(rng, 0.02, 0.12) : Math.exp(0.9 * normal(rng));
+    wishSum += wish[i];
+  }
+  const weight = new Float64Array(n);
+  const lo = new Float64Array(n).fill(MIN_STRAIGHT_M);
+  for (let i = 0; i < n; i++) {
+    wish[i] *= straightTotal / wishSum;
+    weight[i] = Math.max(wish[i], 5);
+  }
+
+  // headings of the straights and the corners' summed displacement
+  const cosH = new Float64Array(n);
+  const sinH = new Float64Array(n);
+  let h = 0, rx = 0, ry = 0;
+  for (let i = 0; i < n; i++) {
+    const [dx, dy] = cornerDisplacement(corners[i], PLAN_STEP_M);
+    const c = Math.cos(h), s = Math.sin(h);
+    rx -= c * dx - s * dy;
+    ry -= s * dx + c * dy;
+    h += corners[i].sign * corners[i].angleRad;
+    cosH[i] = Math.cos(h);
+    sinH[i] = Math.sin(h);
+  }
+  const straights = solveStraights(cosH, sinH, wish, weight, lo, rx, ry, straightTotal);
+  if (straights === null) return null;
+  return { corners, straights, loopSign, lengthM: p.lengthM };
+}
+
+/**
+ * Draws features from the templates until the corner counts are used up, then orders them so
+ * that the running net turning (in the loop's direction) stays within `band` of an even climb
+ * from 0 to 2π; the corners' mean angles stand in for the angles, which are drawn later.
+ */
+function orderFeatures(rng: Rng, majorCount: number, minorCount: number, band: number, majorMean: number, minorMean: number): Draft | null {
+  const features: string[] = [];
+  let M = majorCount, m = minorCount;
+  while (M + m > 0) {
+    const weights = TEMPLATES.map((t) => {
+      const needM = count(t.pattern, 'M'), needm = count(t.pattern, 'm');
+      if (needM > M || needm > m) return 0;
+      // favour templates that use the counts up in proportion
+      return t.weight * (needm > 0 ? 1 + (2 * m) / (M + m) : 1);
+    });
+    if (weights.every((w) => w === 0)) return null;
+    const t = TEMPLATES[pickWeighted(rng, weights)].pattern;
+    features.push(t);
+    M -= count(t, 'M');
+    m -= count(t, 'm');
+  }
+  const total = majorCount + minorCount;
+  const remaining = features.slice();
+  const signs: (1 | -1)[] = [];
+  const feature: number[] = [];
+  let turned = 0;
+  let done = 0;
+  let f = 0;
+  while (remaining.length > 0) {
+    // candidates that keep every partial turn inside the band; else the least bad one
+    const order = remaining.map((_, i) => i);
+    let best = -1;
+    let bestExcess = Infinity;
+    const start = Math.floor(rng() * order.length);
+    for (let k = 0; k < order.length; k++) {
+      const idx = (start + k) % order.length;
+      const excess = bandExcess(remaining[idx], turned, done, total, band, majorMean, minorMean);
+      if (excess < bestExcess) {
+        bestExcess = excess;
+        best = idx;
+        if (excess === 0) break;
+      }
+    }
+    const t = remaining.splice(best, 1)[0];
+    for (const ch of t) {
+      signs.push(ch === 'M' ? 1 : -1);
+      feature.push(f);
+      turned += ch === 'M' ? majorMean : -minorMean;
+      done++;
+    }
+    f++;
+  }
+  return { signs, feature };
+}
+
+// how far a feature's partial turns leave the band around turned = 2π * corners done / total
+function bandExcess(t: string, turned: number, done: number, total: number, band: number, majorMean: number, minorMean: number): number {
+  let excess = 0;
+  for (const ch of t) {
+    turned += ch === 'M' ? majorMean : -minorMean;
+    done++;
+    const ideal = (2 * Math.PI * done) / total;
+    excess += Math.max(0, Math.abs(turned - ideal) - band);
+  }
+  return excess;
+}
+
+function count(s: string, ch: string): number {
+  let c = 0;
+  for (const x of s) if (x === ch) c++;
+  return c;
+}
+
+// relative corner sizes: kinks, medium corners, long corners, hairpins
+function drawNominalAngle(rng: Rng): number {
+  const r = rng();
+  if (r < 0.15) return uniform(rng, 0.12, 0.3);
+  if (r < 0.65) return uniform(rng, 0.5, 1.1);
+  if (r < 0.88) return uniform(rng, 1.1, 1.6);
+  return uniform(rng, 1.7, 2.3);
+}
+
+function drawShapeKind(rng: Rng): ShapeKind {
+  const kinds: ShapeKind[] = ['constant', 'tightening', 'opening', 'double-apex'];
+  return kinds[pickWeighted(rng, [4, 2, 2, 1])];
+}
+
+// radius relative to the others: hairpins tight, kinks open, the rest spread on a log scale
+function drawRelativeRadius(rng: Rng, angleRatio: number): number {
+  if (angleRatio > 1.6) return uniform(rng, 1, 1.4);
+  if (angleRatio < 0.35) return Math.exp(uniform(rng, Math.log(3), Math.log(10)));
+  return Math.exp(uniform(rng, 0, Math.log(5)));
+}
+
+/**
+ * Radii r_i = max(rMin, λ rel_i) with λ chosen (bisection) so that the corners take `target`
+ * metres, but never more than `cap`; every radius stays >= rMin.
+ */
+function fitRadii(angles: Float64Array, means: number[], rel: Float64Array, rMin: number, target: number, cap: number): Float64Array {
+  const n = angles.length;
+  const radii = new Float64Array(n);
+  const lengthAt = (lambda: number) => {
+    let sum = 0;
+    for (let i = 0; i < n; i++) sum += (angles[i] * Math.max(rMin, lambda * rel[i])) / means[i];
+    return sum;
+  };
+  const goal = Math.min(target, cap);
+  let lo = 0, hi = 1;
+  while (lengthAt(hi) < goal && hi < 1e9) hi *= 2;
+  for (let it = 0; it < 60; it++) {
+    const mid = 0.5 * (lo + hi);
+    if (lengthAt(mid) < goal) lo = mid;
+    else hi = mid;
+  }
+  for (let i = 0; i < n; i++) radii[i] = Math.max(rMin, lo * rel[i]);
+  return radii;
+}
