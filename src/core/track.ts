@@ -14,11 +14,14 @@ export const TRACK_FORMAT = 'lapwright.track/1';
 export type Point = readonly [number, number];
 
 export interface SplineSpec {
-  /** Published spline family: the closed centripetal Catmull–Rom spline (Yuksel et al. 2009). */
-  readonly kind: 'catmull-rom-closed';
-  /** Knot exponent: 0.5 is centripetal. */
-  readonly alpha: number;
-  /** Control points the closed spline interpolates, in travel order, first not repeated. */
+  /**
+   * The closed (periodic) interpolating cubic spline, C² (de Boor, "A Practical Guide to
+   * Splines", 1978): curvature is continuous along the whole lap.
+   */
+  readonly kind: 'cubic-closed';
+  /** Knot spacing: the chord length between consecutive control points. */
+  readonly knots: 'chord-length';
+  /** Control points the closed spline interpolates, in travel order, first not repeated; 1 µm precision. */
   readonly controlPoints: readonly Point[];
 }
 

@@ -25,6 +25,8 @@ export interface CornerShape {
   readonly knots: Float64Array;
   /** Mean of the profile over the corner (integral over v in [0, 1]). */
   readonly mean: number;
+  /** Shortest ramp (in or out) as a share of the corner's length: the profile's finest feature. */
+  readonly minRamp: number;
 }
 
 /**
@@ -62,7 +64,7 @@ export function drawCornerShape(rng: Rng, kind: ShapeKind, noise: LoopNoise, noi
     sum += knots[j];
   }
   // trapezoid rule of the piecewise-linear profile; the end knots are 0
-  return { kind, knots, mean: sum / SHAPE_INTERVALS };
+  return { kind, knots, mean: sum / SHAPE_INTERVALS, minRamp: Math.min(rampIn, rampOut) };
 }
 
 /** Share of peak curvature at corner fraction v in [0, 1] (linear between knots). */

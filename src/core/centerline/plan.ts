@@ -9,15 +9,27 @@ import { solveStraights } from './closure.js';
 import { drawCornerShape, type ShapeKind } from './corner-shape.js';
 import type { Plan, PlannedCorner } from './plan-types.js';
 import { cornerDisplacement } from './trace.js';
+import { macroOverlap } from './macro-check.js';
 
 const DEG = Math.PI / 180;
 
 /**
- * Peak curvature is planned this much below 1 / minCornerRadiusM, so that the spline through
- * the traced control points (which deviates by a fraction of a percent, see curve tests) keeps
- * the radius limit.
+ * Share of radius the planner keeps above minCornerRadiusM, for the spline's deviation from the
+ * plan (control-points.ts keeps it near 0.2%; measured worst case in tests/core/generate).
  */
-export const RADIUS_SAFETY = 1.02;
+export const RADIUS_MARGIN = 0.01;
+
+/** Tightest radius the planner uses, metres. */
+export function plannedMinRadiusM(minCornerRadiusM: number): number {
+  return minCornerRadiusM * (1 + RADIUS_MARGIN);
+}
+
+/** Orderings of the corners tried per attempt before the attempt is given up. */
+export const ORDER_DRAWS = 4;
+/** Draws of straight-length wishes per ordering; the first whose outline keeps its distance is kept. */
+export const WISH_DRAWS = 8;
+/** Log-normal spread of the straights between features (a few long, many short). */
+export const STRAIGHT_SIGMA = 0.9;
 
 /** Trace step used for the closure solve and the coarse check, metres. */
 export const PLAN_STEP_M = 2;
@@ -56,8 +68,18 @@ export function planLap(p: TrackParams, split: TurnSplit, rng: Rng, noise: LoopN
   const loopSign: 1 | -1 = split.loopSign === 0 ? (rng() < 0.5 ? 1 : -1) : split.loopSign;
   const majorCount = loopSign > 0 ? split.leftCount : split.rightCount;
   const minorCount = p.cornerCount - majorCount;
-  const majorTotal = (loopSign > 0 ? split.leftTurningDeg : split.rightTurningDeg) * DEG;
-  const minorTotal = (loopSign > 0 ? split.rightTurningDeg : split.leftTurningDeg) * DEG;
+  // the loop's direction carries the +360 (with as many corners each way, the drawn direction does)
+  const majorTotal = Math.max(split.leftTurningDeg, split.rightTurningDeg) * DEG;
+  const minorTotal = Math.min(split.leftTurningDeg, split.rightTurningDeg) * DEG;
+  for (let draw = 0; draw < ORDER_DRAWS; draw++) {
+    const plan = planOnce(p, rng, noise, loopSign, majorCount, minorCount, majorTotal, minorTotal);
+    if (plan !== null) return plan;
+  }
+  return null;
+}
+
+// one ordering of the corners, its angles, shapes and radii, then the straights
+function planOnce(p: TrackParams, rng: Rng, noise: LoopNoise, loopSign: 1 | -1, majorCount: number, minorCount: number, majorTotal: number, minorTotal: number): Plan | null {
 
   const draft = orderFeatures(rng, majorCount, minorCount, uniform(rng, 100, 200) * DEG, majorTotal / Math.max(1, majorCount), minorCount > 0 ? minorTotal / minorCount : 0);
   if (draft === null) return null;
@@ -85,7 +107,7 @@ export function planLap(p: TrackParams, split: TurnSplit, rng: Rng, noise: LoopN
   const relRadius = new Float64Array(n);
   const meanAngle = (majorTotal + minorTotal) / n;
   for (let i = 0; i < n; i++) relRadius[i] = drawRelativeRadius(rng, angles[i] / meanAngle);
-  const rMin = p.minCornerRadiusM * RADIUS_SAFETY;
+  const rMin = plannedMinRadiusM(p.minCornerRadiusM);
   const cornerShare = uniform(rng, 0.35, 0.65);
   const radii = fitRadii(angles, shapes.map((s) => s.mean), relRadius, rMin, cornerShare * p.lengthM, p.lengthM - n * MIN_STRAIGHT_M * 4);
   const corners: PlannedCorner[] = [];
@@ -99,28 +121,17 @@ export function planLap(p: TrackParams, split: TurnSplit, rng: Rng, noise: LoopN
   const straightTotal = p.lengthM - cornerLength;
   if (straightTotal < n * MIN_STRAIGHT_M) return null;
 
-  // wishes: long straights between features (log-normal: a few long, many short), short ones inside
-  const wish = new Float64Array(n);
-  const inside = new Uint8Array(n);
-  let wishSum = 0;
-  for (let i = 0; i < n; i++) {
-    inside[i] = draft.feature[i] === draft.feature[(i + 1) % n] ? 1 : 0;
-    wish[i] = inside[i] ? uniform(rng, 0.02, 0.12) : Math.exp(0.9 * normal(rng));
-    wishSum += wish[i];
-  }
-  const weight = new Float64Array(n);
-  const lo = new Float64Array(n).fill(MIN_STRAIGHT_M);
-  for (let i = 0; i < n; i++) {
-    wish[i] *= straightTotal / wishSum;
-    weight[i] = Math.max(wish[i], 5);
-  }
-
   // headings of the straights and the corners' summed displacement
   const cosH = new Float64Array(n);
   const sinH = new Float64Array(n);
+  const local = new Float64Array(4 * n);
   let h = 0, rx = 0, ry = 0;
   for (let i = 0; i < n; i++) {
-    const [dx, dy] = cornerDisplacement(corners[i], PLAN_STEP_M);
+    const [mx, my, dx, dy] = cornerDisplacement(corners[i], PLAN_STEP_M);
+    local[4 * i] = mx;
+    local[4 * i + 1] = my;
+    local[4 * i + 2] = dx;
+    local[4 * i + 3] = dy;
     const c = Math.cos(h), s = Math.sin(h);
     rx -= c * dx - s * dy;
     ry -= s * dx + c * dy;
@@ -128,8 +139,41 @@ export function planLap(p: TrackParams, split: TurnSplit, rng: Rng, noise: LoopN
     cosH[i] = Math.cos(h);
     sinH[i] = Math.sin(h);
   }
-  const straights = solveStraights(cosH, sinH, wish, weight, lo, rx, ry, straightTotal);
-  if (straights === null) return null;
+
+  // wishes: long straights between features (log-normal: a few long, many short), short ones
+  // inside; of WISH_DRAWS draws, keep the first whose coarse outline keeps its distance, else
+  // the one that overlaps least
+  const inside = new Uint8Array(n);
+  for (let i = 0; i < n; i++) inside[i] = draft.feature[i] === draft.feature[(i + 1) % n] ? 1 : 0;
+  const lo = new Float64Array(n).fill(MIN_STRAIGHT_M);
+  const wish = new Float64Array(n);
+  const weight = new Float64Array(n);
+  let best: Float64Array | null = null;
+  let bestCost = Infinity;
+  // the outline's pieces must stay two road reaches and the margin apart
+  const required = p.widthM.max + 2 * p.wall.thicknessM + p.clearanceM;
+  const outline = new Float64Array(6 * n);
+  for (let draw = 0; draw < WISH_DRAWS; draw++) {
+    let wishSum = 0;
+    for (let i = 0; i < n; i++) {
+      wish[i] = inside[i] ? uniform(rng, 0.02, 0.12) : Math.exp(STRAIGHT_SIGMA * normal(rng));
+      wishSum += wish[i];
+    }
+    for (let i = 0; i < n; i++) {
+      wish[i] *= straightTotal / wishSum;
+      weight[i] = Math.max(wish[i], 5);
+    }
+    const d = solveStraights(cosH, sinH, wish, weight, lo, rx, ry, straightTotal);
+    if (d === null) continue;
+    const cost = macroOverlap(corners, local, d, required, p.minCornerRadiusM, outline);
+    if (cost < bestCost) {
+      bestCost = cost;
+      best = d;
+      if (cost === 0) break;
+    }
+  }
+  if (best === null || bestCost > 0) return null;
+  const straights = best;
   return { corners, straights, loopSign, lengthM: p.lengthM };
 }
 

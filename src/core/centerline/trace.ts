@@ -21,6 +21,8 @@ export interface Trace {
   /** Where the trace ends: should equal the start (closure residual), metres. */
   readonly endX: number;
   readonly endY: number;
+  /** Heading at the end of the lap, radians: loopSign * 2π up to rounding. */
+  readonly endHeading: number;
 }
 
 /**
@@ -81,18 +83,23 @@ export function tracePlan(plan: Plan, maxStepM: number): Trace {
       pos += d / pieces;
     }
   }
-  return { points, heading, s, cornerStart, cornerEnd, endX: x, endY: y };
+  return { points, heading, s, cornerStart, cornerEnd, endX: x, endY: y, endHeading: h };
 }
 
 /**
  * Displacement of a corner traced alone from (0, 0) at heading 0, with the same steps as
- * `tracePlan`, so that the closure solve and the trace agree to rounding.
+ * `tracePlan`, so that the closure solve and the trace agree to rounding: [mid x, mid y, end x,
+ * end y], the middle being halfway along the corner.
  */
-export function cornerDisplacement(c: PlannedCorner, maxStepM: number): [number, number] {
+export function cornerDisplacement(c: PlannedCorner, maxStepM: number): [number, number, number, number] {
   const m = cornerSubsteps(c, maxStepM) * SHAPE_INTERVALS;
   const step = c.lengthM / m;
-  let x = 0, y = 0, h = 0;
+  let x = 0, y = 0, h = 0, mx = 0, my = 0;
   for (let j = 0; j < m; j++) {
+    if (2 * j === m) {
+      mx = x;
+      my = y;
+    }
     const turn = c.sign * c.peakCurvature * shapeAt(c.shape, (j + 0.5) / m) * step;
     const half = 0.5 * turn;
     const chord = Math.abs(half) < 1e-8 ? step : (step * Math.sin(half)) / half;
@@ -100,7 +107,7 @@ export function cornerDisplacement(c: PlannedCorner, maxStepM: number): [number,
     y += chord * Math.sin(h + half);
     h += turn;
   }
-  return [x, y];
+  return [mx, my, x, y];
 }
 
 // steps per shape interval: arcs short enough and turning at most TRACE_MAX_TURN_RAD each

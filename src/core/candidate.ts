@@ -1,0 +1,247 @@
+/**
+ * One deterministic attempt of the pipeline, up to the shipped (rounded) track without its id:
+ * plan → trace → coarse clearance → control points → spline centerline → widths, walls,
+ * gates, spawns → corners and metrics. The checker and the id are the caller's (generate.ts).
+ */
+import { placeControlPoints } from './centerline/control-points.js';
+import { planLap, PLAN_STEP_M } from './centerline/plan.js';
+import type { Plan } from './centerline/plan-types.js';
+import { chooseStartS } from './centerline/start-line.js';
+import { tracePlan, type Trace } from './centerline/trace.js';
+import { buildArcLengthTable } from './curve/arc-length.js';
+import { cubicSplineClosed } from './curve/cubic-spline-closed.js';
+import { resampleClosedSpline, type ResampledCurve } from './curve/resample.js';
+import { placeGates } from './layout/gates.js';
+import { placeSpawns, type GridLayout } from './layout/spawn.js';
+import { widthProfile } from './layout/widths.js';
+import { trackMetrics } from './metrics/metrics.js';
+import type { TurnSplit } from './params/feasibility.js';
+import type { TrackParams } from './params/types.js';
+import { loopNoise } from './random/noise.js';
+import { stream } from './random/streams.js';
+import { GENERATOR_VERSION } from './rules.js';
+import { TRACK_FORMAT, type Corner, type Gate, type Point, type Spawn, type Track } from './track.js';
+import { checkClearance } from './validate/clearance.js';
+
+/** Wanted gap between shipped centerline points, metres (the actual gap is lengthM / n). */
+export const CENTERLINE_SPACING_M = 1;
+/** The clearance metric is measured up to this far beyond the required margin, metres. */
+export const CLEARANCE_MEASURE_M = 50;
+/** Bumps of the corner-shape noise around the lap (each corner reads 2% of the loop). */
+const SHAPE_NOISE_CYCLES = 50;
+
+/** A candidate track (id still empty), or the stage that refused this attempt. */
+export type Candidate = { readonly track: Track; readonly stage: 'built' } | { readonly track: null; readonly stage: 'plan' | 'clearance' | 'min_radius' | 'gates' };
+
+/** Builds attempt `attempt` of a request; every stage draws from its own sub-stream of (seed, attempt). */
+export function buildCandidate(p: TrackParams, split: TurnSplit, grid: GridLayout, attempt: number): Candidate {
+  const plan = planLap(p, split, stream(p.seed, attempt, 'plan'), loopNoise(stream(p.seed, attempt, 'shape-noise'), SHAPE_NOISE_CYCLES));
+  if (plan === null) return { track: null, stage: 'plan' };
+  const trace = tracePlan(plan, PLAN_STEP_M);
+  const startS = chooseStartS(plan, trace, grid.lengthM);
+  const width = widthProfile(p.widthM, p.noise, p.lengthM, stream(p.seed, attempt, 'width'));
+
+  // cheap refusal before any spline work: distant parts of the planned lap too close
+  const traceReach = new Float64Array(trace.s.length);
+  for (let k = 0; k < traceReach.length; k++) {
+    traceReach[k] = width(((trace.s[k] - startS + plan.lengthM) % plan.lengthM) / plan.lengthM) / 2 + p.wall.thicknessM;
+  }
+  const coarse = checkClearance({ points: trace.points, s: trace.s, lapLengthM: plan.lengthM, reach: traceReach, marginM: p.clearanceM + PLAN_STEP_M / 8, minRadiusM: p.minCornerRadiusM, maxViolations: 1 });
+  if (coarse.violations.length > 0) return { track: null, stage: 'clearance' };
+
+  const { control, traceS } = placeControlPoints(plan, trace, startS);
+  const spline = cubicSplineClosed(control);
+  const table = buildArcLengthTable(spline);
+  const curve = resampleClosedSpline(spline, CENTERLINE_SPACING_M, table);
+  const kLimit = 1 / p.minCornerRadiusM;
+  for (let i = 0; i < curve.n; i++) if (Math.abs(curve.curvature[i]) > kLimit) return { track: null, stage: 'min_radius' };
+
+  const track = shipTrack(p, attempt, plan, trace, startS, control, traceS, table.cumulative, curve, width, grid);
+  if (track === null) return { track: null, stage: 'gates' };
+  return { track, stage: 'built' };
+}
+
+// builds the shipped track (numbers rounded) with an empty id
+function shipTrack(
+  p: TrackParams,
+  attempt: number,
+  plan: Plan,
+  trace: Trace,
+  startS: number,
+  control: Float64Array,
+  traceS: Float64Array,
+  controlSplineS: Float64Array,
+  curve: ResampledCurve,
+  width: (u: number) => number,
+  grid: GridLayout,
+): Track | null {
+  const n = curve.n;
+  const L = curve.lengthM;
+  const spacing = curve.spacingM;
+  const half = new Float64Array(n);
+  const widthM = new Float64Array(n);
+  const curvature = new Float64Array(n);
+  const points: Point[] = new Array(n);
+  const left: Point[] = new Array(n);
+  const right: Point[] = new Array(n);
+  const s: number[] = new Array(n);
+  const headingDeg: number[] = new Array(n);
+  const leftFace = new Float64Array(2 * n);
+  const rightFace = new Float64Array(2 * n);
+  for (let i = 0; i < n; i++) {
+    const h = r3(width(i / n) / 2);
+    half[i] = h;
+    widthM[i] = 2 * h;
+    curvature[i] = r6(curve.curvature[i]);
+    const x = curve.points[2 * i], y = curve.points[2 * i + 1];
+    const nx = curve.normals[2 * i], ny = curve.normals[2 * i + 1];
+    leftFace[2 * i] = x + nx * h;
+    leftFace[2 * i + 1] = y + ny * h;
+    rightFace[2 * i] = x - nx * h;
+    rightFace[2 * i + 1] = y - ny * h;
+    points[i] = [r3(x), r3(y)];
+    left[i] = [r3(leftFace[2 * i]), r3(leftFace[2 * i + 1])];
+    right[i] = [r3(rightFace[2 * i]), r3(rightFace[2 * i + 1])];
+    s[i] = r3(i * spacing);
+    headingDeg[i] = degrees(Math.atan2(curve.tangents[2 * i + 1], curve.tangents[2 * i]));
+  }
+
+  const gateS = placeGates(curvature, spacing, p.gateSpacingM);
+  if (gateS === null) return null;
+  const gates: Gate[] = [];
+  for (let k = 0; k < gateS.length; k++) {
+    const gs = r3(gateS[k]);
+    const x = gs / spacing;
+    const i = Math.min(n - 1, Math.floor(x));
+    const j = (i + 1) % n;
+    const t = x - i;
+    const lx = lerp(leftFace[2 * i], leftFace[2 * j], t), ly = lerp(leftFace[2 * i + 1], leftFace[2 * j + 1], t);
+    const rx = lerp(rightFace[2 * i], rightFace[2 * j], t), ry = lerp(rightFace[2 * i + 1], rightFace[2 * j + 1], t);
+    const len = Math.hypot(lx - rx, ly - ry);
+    gates.push({ index: k, s: gs, left: [r3(lx), r3(ly)], right: [r3(rx), r3(ry)], forward: [r6((ly - ry) / len), r6(-(lx - rx) / len)] });
+  }
+
+  const spawns: Spawn[] = placeSpawns(grid, curve.points, curve.tangents, curve.normals, spacing).map((sp, index) => ({
+    index,
+    position: [r3(sp.x), r3(sp.y)],
+    headingDeg: degrees(sp.headingRad),
+    s: r3(sp.s),
+    lateralM: r3(sp.lateralM),
+  }));
+
+  const corners = measureCorners(plan, trace, startS, traceS, controlSplineS, curvature, spacing, L);
+  // the clearance metric: a quick bound from every 4th vertex, then the exact minimum below it
+  const clearanceInput = {
+    points: curve.points,
+    s: curve.s,
+    lapLengthM: L,
+    reach: half.map((h) => h + p.wall.thicknessM),
+    marginM: p.clearanceM,
+    minRadiusM: p.minCornerRadiusM,
+    maxViolations: 1,
+  };
+  const bound = checkClearance({ ...clearanceInput, measureBeyondM: CLEARANCE_MEASURE_M, stride: 4 }).minGapM;
+  const clearance = checkClearance({ ...clearanceInput, measureBeyondM: Math.max(0, bound) + 1e-9 });
+  const m = trackMetrics({ lengthM: L, spacingM: spacing, curvature, widthM, corners, minClearanceM: clearance.minGapM, gateCount: gates.length });
+  const controlPoints: Point[] = [];
+  for (let j = 0; j < control.length / 2; j++) controlPoints.push([control[2 * j], control[2 * j + 1]]);
+
+  return {
+    format: TRACK_FORMAT,
+    id: '',
+    seed: p.seed,
+    generatorVersion: GENERATOR_VERSION,
+    params: p,
+    attempts: attempt + 1,
+    centerline: {
+      spacingM: r9(spacing),
+      lengthM: r3(L),
+      spline: { kind: 'cubic-closed', knots: 'chord-length', controlPoints },
+      points,
+      s,
+      headingDeg,
+      curvature: Array.from(curvature),
+      halfWidthLeftM: Array.from(half),
+      halfWidthRightM: Array.from(half),
+    },
+    walls: { heightM: p.wall.heightM, thicknessM: p.wall.thicknessM, left, right },
+    gates,
+    spawns,
+    corners,
+    metrics: {
+      lengthM: r3(m.lengthM),
+      totalTurningDeg: r3(m.totalTurningDeg),
+      netTurningDeg: r3(m.netTurningDeg),
+      rightCornerShare: r6(m.rightCornerShare),
+      rightTurningShare: r6(m.rightTurningShare),
+      minRadiusM: r3(m.minRadiusM),
+      width: { min: r3(m.width.min), max: r3(m.width.max) },
+      minClearanceM: r3(m.minClearanceM),
+      cornerCount: m.cornerCount,
+      gateCount: m.gateCount,
+      difficulty: r3(m.difficulty),
+    },
+  };
+}
+
+// corners in lap order from the start line, measured on the shipped curvature
+function measureCorners(plan: Plan, trace: Trace, startS: number, traceS: Float64Array, splineS: Float64Array, curvature: Float64Array, spacing: number, L: number): Corner[] {
+  const lapM = plan.lengthM;
+  const toSpline = (ts: number) => {
+    const rel = (ts - startS + lapM) % lapM;
+    let lo = 0, hi = traceS.length - 1;
+    while (lo < hi) {
+      const mid = (lo + hi + 1) >> 1;
+      if (traceS[mid] <= rel) lo = mid;
+      else hi = mid - 1;
+    }
+    const t1 = lo + 1 < traceS.length ? traceS[lo + 1] : lapM;
+    const s1 = lo + 1 < traceS.length ? splineS[lo + 1] : L;
+    const f = t1 > traceS[lo] ? (rel - traceS[lo]) / (t1 - traceS[lo]) : 0;
+    return splineS[lo] + f * (s1 - splineS[lo]);
+  };
+  const n = curvature.length;
+  const raw = plan.corners.map((c, i) => {
+    const endS = trace.cornerEnd[i] < trace.s.length ? trace.s[trace.cornerEnd[i]] : lapM;
+    const sStart = toSpline(trace.s[trace.cornerStart[i]]);
+    let sEnd = toSpline(endS);
+    if (sEnd < sStart) sEnd = L;
+    let turn = 0, kMax = 0;
+    for (let k = Math.ceil(sStart / spacing); k * spacing <= sEnd && k < n; k++) {
+      turn += curvature[k] * spacing;
+      kMax = Math.max(kMax, Math.abs(curvature[k]));
+    }
+    return { sign: c.sign, sStart, sEnd, angleDeg: Math.abs(turn) * (180 / Math.PI), minRadiusM: kMax > 0 ? 1 / kMax : Infinity };
+  });
+  raw.sort((a, b) => a.sStart - b.sStart);
+  return raw.map((c, index) => ({
+    index,
+    direction: c.sign > 0 ? 'left' : 'right',
+    angleDeg: r3(c.angleDeg),
+    minRadiusM: r3(c.minRadiusM),
+    sStart: r3(c.sStart),
+    sEnd: r3(c.sEnd),
+  }));
+}
+
+function degrees(rad: number): number {
+  let d = Math.round(rad * (180 / Math.PI) * 1000) / 1000;
+  if (d <= -180) d += 360;
+  return d + 0;
+}
+
+function lerp(a: number, b: number, t: number): number {
+  return a + (b - a) * t;
+}
+
+function r3(x: number): number {
+  return Math.round(x * 1e3) / 1e3 + 0;
+}
+
+function r6(x: number): number {
+  return Math.round(x * 1e6) / 1e6 + 0;
+}
+
+function r9(x: number): number {
+  return Math.round(x * 1e9) / 1e9 + 0;
+}
