@@ -1,0 +1,94 @@
+/**
+ * Help texts of the CLI. The parameter list is read from the request schema's descriptions, so
+ * ranges and defaults are stated once (core LIMITS and DEFAULTS).
+ */
+import { z } from 'zod';
+import { SEED_MAX, SEED_STRING_MAX_CHARS } from '../core/index.js';
+import { trackRequestSchema } from '../schema/params.js';
+
+/** Exit codes of every command, as `--help` prints them. */
+export const EXIT_CODES_TEXT = `Exit codes:
+  0  success (validate: the track is valid)
+  1  unexpected error (a failed write or a bug; a one-line message, never a stack trace)
+  2  malformed input: bad flag, unreadable or invalid JSON, a field out of range (each named with its path)
+  3  infeasible request: well-formed, but no valid track meets it (reason, message and hint on stderr)
+  4  validate only: the track is well-formed but breaks a guarantee (issues on stdout)`;
+
+/** `lapwright --help`. */
+export function mainHelp(): string {
+  return `Usage: lapwright <command> [options]
+
+Closed racing tracks for training driving agents: seeded, validated, reproducible.
+
+Commands:
+  generate   generate one track and print its JSON
+  validate   check a track file against every guarantee and print {valid, issues}
+  serve, batch, verify
+             not yet available in this version
+
+Options:
+  -h, --help  show this help; \`lapwright <command> --help\` shows a command's options
+  --version   print the package version and the generator version
+
+Data goes to stdout (or --out), messages to stderr.
+
+${EXIT_CODES_TEXT}
+`;
+}
+
+/** `lapwright generate --help`. */
+export function generateHelp(): string {
+  return `Usage: lapwright generate [--seed S] [--params FILE | -] [--set KEY=VALUE ...] [--out FILE] [--pretty]
+
+Generates one track (format lapwright.track/1) and prints its JSON to stdout, or writes it to --out.
+The same seed, parameters and generator version give the same bytes.
+
+Options:
+  --seed S           integer 0..${SEED_MAX} or a string of 1..${SEED_STRING_MAX_CHARS} characters; digits that fit
+                     are read as the integer, anything else as a string. Left out: drawn at random
+                     and echoed in the track (track.seed).
+  --params FILE | -  JSON object of parameters (- reads it from stdin)
+  --set KEY=VALUE    set one parameter over --params; dotted keys reach nested fields
+                     (--set widthM.min=8); numbers are parsed, anything else is a string; repeatable
+  --out FILE         write the track to FILE instead of stdout
+  --pretty           indent the JSON (the default is one line)
+  -h, --help         show this help
+Precedence: --params, then each --set in order, then --seed.
+
+Parameters (all optional):
+${parameterLines().join('\n')}
+
+${EXIT_CODES_TEXT}
+`;
+}
+
+/** `lapwright validate --help`. */
+export function validateHelp(): string {
+  return `Usage: lapwright validate [--pretty] TRACK.json | -
+
+Checks a track (format lapwright.track/1) against every guarantee and prints {valid, issues} to stdout.
+A malformed file (wrong types, missing fields) is input error 2; a well-formed track that breaks a
+guarantee (crossing walls, radius below the minimum, ...) is exit 4 with the issues on stdout.
+
+Options:
+  --pretty    indent the JSON
+  -h, --help  show this help
+
+${EXIT_CODES_TEXT}
+`;
+}
+
+// one line per leaf field of the request schema: dotted name and description
+function parameterLines(): string[] {
+  const rows: [string, string][] = [];
+  for (const [key, field] of Object.entries(trackRequestSchema.shape)) {
+    const inner = field.unwrap();
+    if (inner instanceof z.ZodObject) {
+      for (const [sub, subField] of Object.entries(inner.shape as Record<string, z.ZodType>)) rows.push([`${key}.${sub}`, subField.description ?? '']);
+    } else {
+      rows.push([key, field.description ?? '']);
+    }
+  }
+  const width = Math.max(...rows.map(([name]) => name.length));
+  return rows.map(([name, text]) => `  ${name.padEnd(width)}  ${text}`);
+}
