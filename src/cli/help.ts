@@ -50,7 +50,7 @@ Options:
   --params FILE | -  JSON object of parameters (- reads it from stdin)
   --set KEY=VALUE    set one parameter over --params; dotted keys reach nested fields
                      (--set widthM.min=8); numbers are parsed, anything else is a string; repeatable
-  --out FILE         write the track to FILE instead of stdout
+  --out FILE         write the track to FILE instead of stdout (- is stdout)
   --pretty           indent the JSON (the default is one line)
   -h, --help         show this help
 Precedence: --params, then each --set in order, then --seed.

@@ -203,6 +203,10 @@ describe('generate', () => {
     expect(await readFile(out, 'utf8')).toBe(JSON.stringify(generateTrack({ seed: 7 })) + '\n');
   });
 
+  it('--out - is stdout', async () => {
+    expect((await run(['generate', '--seed', '7', '--out', '-'])).stdout).toBe(JSON.stringify(generateTrack({ seed: 7 })) + '\n');
+  });
+
   it('a seed left out is drawn in 0..SEED_MAX and echoed in the track', async () => {
     const track = JSON.parse((await run(['generate', '--set', 'lengthM=600'])).stdout) as Track;
     expect(Number.isInteger(track.seed)).toBe(true);
