@@ -129,7 +129,7 @@ function shipTrack(
     lateralM: r3(sp.lateralM),
   }));
 
-  const corners = measureCorners(plan, trace, startS, traceS, controlSplineS, curvature, spacing, L);
+  const corners = measureCorners(plan, trace, startS, traceS, controlSplineS, curvature, curve.tangents, spacing, L);
   // the clearance metric: a quick bound from every 4th vertex, then the exact minimum below it
   const clearanceInput = {
     points: curve.points,
@@ -185,7 +185,7 @@ function shipTrack(
 }
 
 // corners in lap order from the start line, measured on the shipped curvature
-function measureCorners(plan: Plan, trace: Trace, startS: number, traceS: Float64Array, splineS: Float64Array, curvature: Float64Array, spacing: number, L: number): Corner[] {
+function measureCorners(plan: Plan, trace: Trace, startS: number, traceS: Float64Array, splineS: Float64Array, curvature: Float64Array, tangents: Float64Array, spacing: number, L: number): Corner[] {
   const lapM = plan.lengthM;
   const toSpline = (ts: number) => {
     const rel = (ts - startS + lapM) % lapM;
@@ -203,15 +203,19 @@ function measureCorners(plan: Plan, trace: Trace, startS: number, traceS: Float6
   const n = curvature.length;
   const raw = plan.corners.map((c, i) => {
     const endS = trace.cornerEnd[i] < trace.s.length ? trace.s[trace.cornerEnd[i]] : lapM;
-    const sStart = toSpline(trace.s[trace.cornerStart[i]]);
-    let sEnd = toSpline(endS);
-    if (sEnd < sStart) sEnd = L;
+    // the corner spans whole samples, its ends where the curvature has fallen to zero
+    const first = Math.max(0, Math.floor(toSpline(trace.s[trace.cornerStart[i]]) / spacing));
+    let last = Math.ceil(toSpline(endS) / spacing);
+    if (last <= first) last = n;
+    // turning = heading change of the spline between the end samples, unwrapped sample by sample
     let turn = 0, kMax = 0;
-    for (let k = Math.ceil(sStart / spacing); k * spacing <= sEnd && k < n; k++) {
-      turn += curvature[k] * spacing;
-      kMax = Math.max(kMax, Math.abs(curvature[k]));
+    for (let k = first; k < last; k++) {
+      const a = k % n, b = (k + 1) % n;
+      turn += Math.atan2(tangents[2 * a] * tangents[2 * b + 1] - tangents[2 * a + 1] * tangents[2 * b], tangents[2 * a] * tangents[2 * b] + tangents[2 * a + 1] * tangents[2 * b + 1]);
+      kMax = Math.max(kMax, Math.abs(curvature[a]));
     }
-    return { sign: c.sign, sStart, sEnd, angleDeg: Math.abs(turn) * (180 / Math.PI), minRadiusM: kMax > 0 ? 1 / kMax : Infinity };
+    kMax = Math.max(kMax, Math.abs(curvature[last % n]));
+    return { sign: c.sign, sStart: first * spacing, sEnd: Math.min(last * spacing, L), angleDeg: Math.abs(turn) * (180 / Math.PI), minRadiusM: kMax > 0 ? 1 / kMax : Infinity };
   });
   raw.sort((a, b) => a.sStart - b.sStart);
   return raw.map((c, index) => ({
