@@ -28,6 +28,7 @@ export const ISSUE_CODES = [
   'gate_endpoint',
   'gate_spacing',
   'gate_density',
+  'gate_forward',
   'spawn_outside',
   'spawn_ahead',
   'spawn_alignment',

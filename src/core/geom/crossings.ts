@@ -6,6 +6,9 @@ import { orient } from './orient.js';
 import { pointSegmentDistance } from './polyline.js';
 import { segmentsIntersect } from './segment-intersect.js';
 
+/** Candidate lists up to this long are sorted by insertion (quadratic, but cheaper than a sort call when short). */
+const INSERTION_SORT_MAX = 16;
+
 /** A segment named by its polyline and its index within it (segment i runs from vertex i to vertex i + 1). */
 export interface SegmentRef {
   readonly polyline: number;
@@ -58,7 +61,17 @@ export function findCrossings(polylines: readonly PolylineInput[], maxResults = 
     // keep each pair once (j > i) and in id order, so output does not depend on the grid layout
     let count = 0;
     for (let k = 0; k < found; k++) if (candidates[k] > i) candidates[count++] = candidates[k];
-    const later = candidates.subarray(0, count).sort();
+    // usually a handful of candidates: insertion sort in place, no view allocated per query
+    if (count > INSERTION_SORT_MAX) candidates.subarray(0, count).sort();
+    else {
+      for (let k = 1; k < count; k++) {
+        const v = candidates[k];
+        let m = k - 1;
+        for (; m >= 0 && candidates[m] > v; m--) candidates[m + 1] = candidates[m];
+        candidates[m + 1] = v;
+      }
+    }
+    const later = candidates;
     for (let k = 0; k < count && results.length < maxResults; k++) {
       const j = later[k];
       const cx = seg[4 * j], cy = seg[4 * j + 1], dx = seg[4 * j + 2], dy = seg[4 * j + 3];
@@ -102,11 +115,12 @@ function crossing(index: SegmentIndex, i: number, j: number, x: number, y: numbe
  */
 function foldsBack(ax: number, ay: number, vx: number, vy: number, bx: number, by: number): boolean {
   if ((ax === vx && ay === vy) || (bx === vx && by === vy)) return false;
-  if (orient(ax, ay, vx, vy, bx, by) !== 0) return false;
-  // collinear legs point the same way iff a non-zero component has the same sign in both
+  // collinear legs point the same way iff a non-zero component has the same sign in both; the signs of
+  // differences are exact, so test them first and leave orient (slow on exactly collinear input) for last
   const ux = Math.sign(ax - vx);
   const uy = Math.sign(ay - vy);
-  return (ux !== 0 && ux === Math.sign(bx - vx)) || (uy !== 0 && uy === Math.sign(by - vy));
+  const sameWay = (ux !== 0 && ux === Math.sign(bx - vx)) || (uy !== 0 && uy === Math.sign(by - vy));
+  return sameWay && orient(ax, ay, vx, vy, bx, by) === 0;
 }
 
 /** An approximate common point of two intersecting segments: the line intersection, else a touching endpoint. */

@@ -148,25 +148,31 @@ export class SegmentIndex {
     this.rows = Math.floor(h * this.inv) + 1;
     const cells = this.cols * this.rows;
 
-    // counting sort: count entries per cell, prefix-sum into starts, then place each id
+    // counting sort: count entries per cell, prefix-sum into starts, then place each id;
+    // each segment's cell range [cx0, cx1] x [cy0, cy1] is computed once and kept for the second pass
+    const cols = this.cols;
+    const range = new Int32Array(4 * n);
     const start = new Int32Array(cells + 1);
     for (let i = 0; i < n; i++) {
       const cx0 = this.cellX(b[4 * i]);
+      const cy0 = this.cellY(b[4 * i + 1]);
       const cx1 = this.cellX(b[4 * i + 2]);
       const cy1 = this.cellY(b[4 * i + 3]);
-      for (let cy = this.cellY(b[4 * i + 1]); cy <= cy1; cy++) {
-        for (let cx = cx0; cx <= cx1; cx++) start[cy * this.cols + cx + 1]++;
+      range[4 * i] = cx0;
+      range[4 * i + 1] = cy0;
+      range[4 * i + 2] = cx1;
+      range[4 * i + 3] = cy1;
+      for (let cy = cy0; cy <= cy1; cy++) {
+        for (let cx = cx0; cx <= cx1; cx++) start[cy * cols + cx + 1]++;
       }
     }
     for (let c = 0; c < cells; c++) start[c + 1] += start[c];
     const items = new Int32Array(start[cells]);
     const next = start.slice(0, cells);
     for (let i = 0; i < n; i++) {
-      const cx0 = this.cellX(b[4 * i]);
-      const cx1 = this.cellX(b[4 * i + 2]);
-      const cy1 = this.cellY(b[4 * i + 3]);
-      for (let cy = this.cellY(b[4 * i + 1]); cy <= cy1; cy++) {
-        for (let cx = cx0; cx <= cx1; cx++) items[next[cy * this.cols + cx]++] = i;
+      const cx0 = range[4 * i], cx1 = range[4 * i + 2], cy1 = range[4 * i + 3];
+      for (let cy = range[4 * i + 1]; cy <= cy1; cy++) {
+        for (let cx = cx0; cx <= cx1; cx++) items[next[cy * cols + cx]++] = i;
       }
     }
     this.cellStart = start;
@@ -207,11 +213,28 @@ export class SegmentIndex {
    * @throws {Error} when the index is not finished.
    */
   searchInto(minX: number, minY: number, maxX: number, maxY: number, out: Int32Array): number {
+    this.assertFinished();
+    if (this.numItems === 0) return 0;
+    // the loop of search() without a visitor call per candidate: this is the hot query of the checkers
+    const q = this.nextQuery();
+    const { boxes: b, stamp, cellStart: start, cellItems: items, cols } = this;
+    const cx0 = Math.max(0, this.cellX(minX));
+    const cx1 = Math.min(cols - 1, this.cellX(maxX));
+    const cy1 = Math.min(this.rows - 1, this.cellY(maxY));
     let count = 0;
-    this.search(minX, minY, maxX, maxY, (id) => {
-      if (count < out.length) out[count] = id;
-      count++;
-    });
+    for (let cy = Math.max(0, this.cellY(minY)); cy <= cy1; cy++) {
+      for (let cx = cx0; cx <= cx1; cx++) {
+        const c = cy * cols + cx;
+        for (let k = start[c], end = start[c + 1]; k < end; k++) {
+          const i = items[k];
+          if (stamp[i] === q) continue;
+          stamp[i] = q;
+          if (b[4 * i] > maxX || b[4 * i + 1] > maxY || b[4 * i + 2] < minX || b[4 * i + 3] < minY) continue;
+          if (count < out.length) out[count] = i;
+          count++;
+        }
+      }
+    }
     return count;
   }
 
