@@ -5,6 +5,7 @@
 import { z } from 'zod';
 import { SEED_MAX, SEED_STRING_MAX_CHARS } from '../core/index.js';
 import { trackRequestSchema } from '../schema/params.js';
+import { ENV_VARS, SERVER_DEFAULTS } from '../server/config.js';
 
 /** Exit codes of every command, as `--help` prints them. */
 export const EXIT_CODES_TEXT = `Exit codes:
@@ -23,7 +24,8 @@ Closed racing tracks for training driving agents: seeded, validated, reproducibl
 Commands:
   generate   generate one track and print its JSON
   validate   check a track file against every guarantee and print {valid, issues}
-  serve, batch, verify
+  serve      run the HTTP service until SIGTERM (see lapwright serve --help)
+  batch, verify
              not yet available in this version
 
 Options:
@@ -75,6 +77,30 @@ Options:
   -h, --help  show this help
 
 ${EXIT_CODES_TEXT}
+`;
+}
+
+/** `lapwright serve --help`. */
+export function serveHelp(): string {
+  return `Usage: lapwright serve [--port N] [--host ADDRESS]
+
+Runs the HTTP service (the same as npm start) until SIGTERM or SIGINT, then finishes the requests
+in flight and exits 0. Logs are JSON lines (pino) on stdout. Endpoints: GET /docs once it runs.
+
+Options:
+  --port N          TCP port (default: $PORT, else ${SERVER_DEFAULTS.port}; 0 = any free port)
+  --host ADDRESS    address to listen on (default: $HOST, else ${SERVER_DEFAULTS.host}; 0.0.0.0 for all)
+  -h, --help        show this help
+
+Environment:
+${Object.values(ENV_VARS)
+  .map((v) => `  ${v.name.padEnd(33)} ${v.meaning} (default ${v.defaultText})`)
+  .join('\n')}
+
+Exit codes:
+  0  shut down cleanly after SIGTERM or SIGINT
+  1  could not listen, or in-flight requests did not finish within LAPWRIGHT_SHUTDOWN_TIMEOUT_MS
+  2  a bad flag or environment variable
 `;
 }
 

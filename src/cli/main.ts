@@ -7,15 +7,14 @@
  * 4 (validate) a well-formed track that breaks a guarantee. Messages go to stderr, data to
  * stdout, and no stack trace is ever printed.
  */
-import { readFile } from 'node:fs/promises';
-import { dirname, join } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { ERROR_CODES, GENERATOR_VERSION, isInfeasibleError } from '../core/index.js';
 import type { InfeasibleError } from '../core/index.js';
 import { runGenerate } from './generate.js';
 import { mainHelp } from './help.js';
 import { type CliIo, InputError, messageOf, writeText } from './io.js';
+import { runServe } from './serve.js';
 import { runValidate } from './validate.js';
+import { readPackageVersion } from '../version.js';
 
 export type { CliIo, TextSink } from './io.js';
 export { EXIT_TRACK_INVALID } from './validate.js';
@@ -33,10 +32,11 @@ const MAX_PRINTED_ISSUES = 20;
 const COMMANDS: Record<string, (args: readonly string[], io: CliIo) => Promise<number>> = {
   generate: runGenerate,
   validate: runValidate,
+  serve: runServe,
 };
 
 /** Commands of the product that this version does not ship yet. */
-const LATER_COMMANDS = new Set(['serve', 'batch', 'verify']);
+const LATER_COMMANDS = new Set(['batch', 'verify']);
 
 /**
  * Runs one `lapwright` command line.
@@ -106,20 +106,4 @@ function infeasibleLines(err: InfeasibleError, name: string): string[] {
     if (issues.length > MAX_PRINTED_ISSUES) lines.push(`  ... and ${issues.length - MAX_PRINTED_ISSUES} more`);
   }
   return lines;
-}
-
-// the package.json above this file (src/cli in the repository, dist/src/cli when built)
-async function readPackageVersion(): Promise<string> {
-  let dir = dirname(fileURLToPath(import.meta.url));
-  for (;;) {
-    try {
-      const pkg = JSON.parse(await readFile(join(dir, 'package.json'), 'utf8')) as { name?: unknown; version?: unknown };
-      if (pkg.name === 'lapwright' && typeof pkg.version === 'string') return pkg.version;
-    } catch {
-      // no package.json here: look one folder up
-    }
-    const up = dirname(dir);
-    if (up === dir) return 'unknown';
-    dir = up;
-  }
 }

@@ -1,0 +1,173 @@
+/**
+ * The service's knobs: defaults, allowed ranges, and how environment variables set them.
+ * buildApp takes `AppOptions` (tests pass them directly); the entry reads them from the
+ * environment with `readServerConfig`, which names every bad variable at once.
+ */
+import { availableParallelism } from 'node:os';
+
+/** Options of buildApp; each has a default (see APP_DEFAULTS and resolveAppOptions). */
+export interface AppOptions {
+  /** Worker threads that run the generator; default: the machine's available parallelism. */
+  readonly workers?: number;
+  /** Requests that may wait for a worker before 503s begin; default: 16 per worker. */
+  readonly maxQueue?: number;
+  /** Time budget of one generation or validation from arrival, ms, waiting included. */
+  readonly deadlineMs?: number;
+  /** Largest request body, bytes (parameters). */
+  readonly bodyLimitBytes?: number;
+  /** Largest body of POST /v1/tracks/validate, bytes (a 20 km track is about 2 MB of JSON). */
+  readonly trackBodyLimitBytes?: number;
+  /** Seconds a 503 answer asks the client to wait (Retry-After). */
+  readonly retryAfterS?: number;
+  /** pino logger options, or false for none (the default, so tests stay quiet). */
+  readonly logger?: boolean | { readonly level?: string };
+  /** Start the worker pool (false: documentation only, e.g. writing openapi.json). */
+  readonly startPool?: boolean;
+  /** Worker entry override (tests use fixture workers). */
+  readonly workerUrl?: URL;
+  /** Data handed to each worker (tests). */
+  readonly workerData?: Readonly<Record<string, unknown>>;
+}
+
+/** AppOptions with every default filled in. */
+export interface ResolvedAppOptions {
+  readonly workers: number;
+  readonly maxQueue: number;
+  readonly deadlineMs: number;
+  readonly bodyLimitBytes: number;
+  readonly trackBodyLimitBytes: number;
+  readonly retryAfterS: number;
+  readonly logger: boolean | { readonly level?: string };
+  readonly startPool: boolean;
+  readonly workerUrl?: URL;
+  readonly workerData?: Readonly<Record<string, unknown>>;
+}
+
+/** The listening entry's configuration: where to listen, and the app's options. */
+export interface ServerConfig {
+  readonly port: number;
+  readonly host: string;
+  readonly logLevel: string;
+  /** After SIGTERM, the longest wait for in-flight requests before giving up (exit 1), ms. */
+  readonly shutdownTimeoutMs: number;
+  readonly app: ResolvedAppOptions;
+}
+
+/** Queue length per worker when maxQueue is not set. */
+export const QUEUE_PER_WORKER = 16;
+
+/** Default values (workers and maxQueue depend on the machine; see resolveAppOptions). */
+export const APP_DEFAULTS = {
+  deadlineMs: 10_000,
+  bodyLimitBytes: 1024 * 1024,
+  trackBodyLimitBytes: 4 * 1024 * 1024,
+  retryAfterS: 1,
+} as const;
+
+/** Defaults of the listening entry. */
+export const SERVER_DEFAULTS = {
+  port: 8080,
+  host: '127.0.0.1',
+  logLevel: 'info',
+  shutdownTimeoutMs: 30_000,
+} as const;
+
+const LOG_LEVELS = ['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'] as const;
+
+/** One environment variable: its name, meaning, default (as documented), and allowed range. */
+export interface EnvVar {
+  readonly name: string;
+  readonly meaning: string;
+  readonly defaultText: string;
+  readonly min?: number;
+  readonly max?: number;
+}
+
+/** Every environment variable the entry reads (docs/http-service.md repeats this table). */
+export const ENV_VARS = {
+  port: { name: 'PORT', meaning: 'TCP port to listen on (0 = any free port)', defaultText: String(SERVER_DEFAULTS.port), min: 0, max: 65_535 },
+  host: { name: 'HOST', meaning: 'address to listen on (0.0.0.0 in containers)', defaultText: SERVER_DEFAULTS.host },
+  logLevel: { name: 'LOG_LEVEL', meaning: `pino log level: ${LOG_LEVELS.join(', ')}`, defaultText: SERVER_DEFAULTS.logLevel },
+  workers: { name: 'LAPWRIGHT_WORKERS', meaning: 'generation worker threads', defaultText: 'available CPU cores', min: 1, max: 256 },
+  maxQueue: { name: 'LAPWRIGHT_MAX_QUEUE', meaning: 'requests waiting for a worker before 503 + Retry-After', defaultText: `${QUEUE_PER_WORKER} x workers`, min: 0, max: 100_000 },
+  deadlineMs: { name: 'LAPWRIGHT_DEADLINE_MS', meaning: 'time budget of one request from arrival, waiting included, ms', defaultText: String(APP_DEFAULTS.deadlineMs), min: 10, max: 600_000 },
+  bodyLimitBytes: { name: 'LAPWRIGHT_BODY_LIMIT_BYTES', meaning: 'largest request body, bytes (413 above)', defaultText: `${APP_DEFAULTS.bodyLimitBytes} (1 MiB)`, min: 1024, max: 1024 ** 3 },
+  trackBodyLimitBytes: { name: 'LAPWRIGHT_TRACK_BODY_LIMIT_BYTES', meaning: 'largest body of POST /v1/tracks/validate, bytes', defaultText: `${APP_DEFAULTS.trackBodyLimitBytes} (4 MiB)`, min: 1024, max: 1024 ** 3 },
+  retryAfterS: { name: 'LAPWRIGHT_RETRY_AFTER_S', meaning: 'seconds a 503 asks the client to wait (Retry-After)', defaultText: String(APP_DEFAULTS.retryAfterS), min: 0, max: 3600 },
+  shutdownTimeoutMs: { name: 'LAPWRIGHT_SHUTDOWN_TIMEOUT_MS', meaning: 'after SIGTERM, longest wait for in-flight requests, ms', defaultText: String(SERVER_DEFAULTS.shutdownTimeoutMs), min: 0, max: 3_600_000 },
+} as const satisfies Record<string, EnvVar>;
+
+/** A configuration that cannot start the server; `problems` names each bad variable. */
+export class ConfigError extends Error {
+  readonly problems: readonly string[];
+
+  constructor(problems: readonly string[]) {
+    super(`invalid configuration: ${problems.join('; ')}`);
+    this.name = 'ConfigError';
+    this.problems = problems;
+  }
+}
+
+/**
+ * Fills in every default of AppOptions.
+ * @throws RangeError when a value is out of range (a programmer's mistake in the caller)
+ */
+export function resolveAppOptions(options: AppOptions = {}): ResolvedAppOptions {
+  const workers = options.workers ?? availableParallelism();
+  const resolved: ResolvedAppOptions = {
+    workers,
+    maxQueue: options.maxQueue ?? QUEUE_PER_WORKER * workers,
+    deadlineMs: options.deadlineMs ?? APP_DEFAULTS.deadlineMs,
+    bodyLimitBytes: options.bodyLimitBytes ?? APP_DEFAULTS.bodyLimitBytes,
+    trackBodyLimitBytes: options.trackBodyLimitBytes ?? APP_DEFAULTS.trackBodyLimitBytes,
+    retryAfterS: options.retryAfterS ?? APP_DEFAULTS.retryAfterS,
+    logger: options.logger ?? false,
+    startPool: options.startPool ?? true,
+    workerUrl: options.workerUrl,
+    workerData: options.workerData,
+  };
+  for (const key of ['workers', 'maxQueue', 'deadlineMs', 'bodyLimitBytes', 'trackBodyLimitBytes', 'retryAfterS'] as const) {
+    const spec: EnvVar = ENV_VARS[key];
+    const value = resolved[key];
+    if (!Number.isInteger(value) || value < (spec.min ?? 0) || value > (spec.max ?? Infinity)) {
+      throw new RangeError(`${key} must be an integer from ${spec.min} to ${spec.max}, got ${value}`);
+    }
+  }
+  return resolved;
+}
+
+/**
+ * Reads the server's configuration from environment variables (ENV_VARS); unset or empty
+ * variables take their defaults.
+ * @throws ConfigError naming every variable that is not a valid value
+ * @example readServerConfig({ PORT: '9000', LAPWRIGHT_WORKERS: '2' }).app.workers // 2
+ */
+export function readServerConfig(env: Readonly<Record<string, string | undefined>>): ServerConfig {
+  const problems: string[] = [];
+  const int = (spec: EnvVar): number | undefined => {
+    const raw = env[spec.name]?.trim();
+    if (raw === undefined || raw === '') return undefined;
+    const value = /^\d+$/.test(raw) ? Number(raw) : NaN;
+    if (!Number.isSafeInteger(value) || value < (spec.min ?? 0) || value > (spec.max ?? Infinity)) {
+      problems.push(`${spec.name} must be an integer from ${spec.min} to ${spec.max}, got ${JSON.stringify(raw)}`);
+      return undefined;
+    }
+    return value;
+  };
+  const port = int(ENV_VARS.port) ?? SERVER_DEFAULTS.port;
+  const host = env[ENV_VARS.host.name]?.trim() || SERVER_DEFAULTS.host;
+  const logLevel = env[ENV_VARS.logLevel.name]?.trim() || SERVER_DEFAULTS.logLevel;
+  if (!(LOG_LEVELS as readonly string[]).includes(logLevel)) problems.push(`${ENV_VARS.logLevel.name} must be one of ${LOG_LEVELS.join(', ')}, got ${JSON.stringify(logLevel)}`);
+  const shutdownTimeoutMs = int(ENV_VARS.shutdownTimeoutMs) ?? SERVER_DEFAULTS.shutdownTimeoutMs;
+  const options: AppOptions = {
+    workers: int(ENV_VARS.workers),
+    maxQueue: int(ENV_VARS.maxQueue),
+    deadlineMs: int(ENV_VARS.deadlineMs),
+    bodyLimitBytes: int(ENV_VARS.bodyLimitBytes),
+    trackBodyLimitBytes: int(ENV_VARS.trackBodyLimitBytes),
+    retryAfterS: int(ENV_VARS.retryAfterS),
+    logger: { level: logLevel },
+  };
+  if (problems.length > 0) throw new ConfigError(problems);
+  return { port, host, logLevel, shutdownTimeoutMs, app: resolveAppOptions(options) };
+}
