@@ -60,6 +60,8 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     return503OnClosing: false,
     // seeds are path segments of up to 64 characters, URL-encoded
     routerOptions: { maxParamLength: 1024 },
+    // errors the router raises before any route (a URL that does not decode) get our body too
+    frameworkErrors: (err, request, reply) => handleError(err, request, reply),
   });
   await app.register(fp(lapwrightService, { name: 'lapwright', fastify: '5.x' }), resolved);
   return app;

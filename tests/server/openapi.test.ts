@@ -1,0 +1,77 @@
+import { readFile } from 'node:fs/promises';
+import { describe, expect, it } from 'vitest';
+import { buildApp } from '../../src/server/app.js';
+import { buildOpenApiDocument, OPENAPI_FILE, renderOpenApi } from '../../src/server/openapi.js';
+import { json } from './helpers.js';
+
+const REPO_ROOT = new URL('../../', import.meta.url);
+
+describe('OpenAPI document', () => {
+  it('the checked-in openapi/openapi.json is the one the schemas make (run npm run openapi when this fails)', async () => {
+    const checkedIn = await readFile(new URL(OPENAPI_FILE, REPO_ROOT), 'utf8');
+    const current = renderOpenApi(await buildOpenApiDocument());
+    expect(checkedIn === current, `${OPENAPI_FILE} is stale: run npm run openapi and commit the result`).toBe(true);
+  });
+
+  it('documents every route with its responses, and GET /openapi.json serves it', async () => {
+    const app = await buildApp({ startPool: false });
+    try {
+      const res = await app.inject({ method: 'GET', url: '/openapi.json' });
+      expect(res.statusCode).toBe(200);
+      const doc = json(res) as { openapi: string; paths: Record<string, Record<string, { responses: Record<string, unknown>; parameters?: { name: string; in: string }[] }>>; components: { schemas: Record<string, unknown> } };
+      expect(doc).toEqual(JSON.parse(renderOpenApi(await buildOpenApiDocument())));
+      expect(doc.openapi).toBe('3.1.0');
+      const routes = Object.entries(doc.paths).flatMap(([path, methods]) => Object.entries(methods).map(([method, op]) => `${method.toUpperCase()} ${path} ${Object.keys(op.responses).join(',')}`));
+      expect(routes).toEqual([
+        'GET /healthz 200',
+        'GET /readyz 200,503',
+        'POST /v1/tracks 200,304,400,406,413,415,422,503',
+        'GET /v1/tracks/{seed} 200,304,400,406,422,503',
+        'POST /v1/tracks/validate 200,400,413,415,422,503',
+        'GET /v1/presets 200',
+      ]);
+      const get = doc.paths['/v1/tracks/{seed}'].get;
+      expect(get.parameters?.map((p) => `${p.in}:${p.name}`)).toEqual([
+        'query:lengthM',
+        'query:widthM.min',
+        'query:widthM.max',
+        'query:curvatureBudgetDeg',
+        'query:turnBalance',
+        'query:cornerCount',
+        'query:minCornerRadiusM',
+        'query:noise',
+        'query:gateSpacingM.min',
+        'query:gateSpacingM.max',
+        'query:spawnSlots',
+        'query:wall.heightM',
+        'query:wall.thicknessM',
+        'query:clearanceM',
+        'query:car.lengthM',
+        'query:car.widthM',
+        'query:format',
+        'path:seed',
+      ]);
+      expect(Object.keys(doc.components.schemas).sort()).toEqual(['Error', 'FieldIssue', 'Track', 'TrackInput', 'TrackIssue', 'TrackRequest', 'TrackRequestInput']);
+    } finally {
+      await app.close();
+    }
+  });
+
+  it('GET /docs serves the interactive documentation and its assets from the package (no network)', async () => {
+    const app = await buildApp({ startPool: false });
+    try {
+      const page = await app.inject({ method: 'GET', url: '/docs/' });
+      expect(page.statusCode).toBe(200);
+      expect(page.headers['content-type']).toMatch(/^text\/html/);
+      expect(page.body).toContain('./static/swagger-ui-bundle.js');
+      const init = await app.inject({ method: 'GET', url: '/docs/static/swagger-initializer.js' });
+      expect(init.statusCode).toBe(200);
+      expect(init.body).toContain('/openapi.json');
+      const bundle = await app.inject({ method: 'GET', url: '/docs/static/swagger-ui-bundle.js' });
+      expect(bundle.statusCode).toBe(200);
+      expect(bundle.body.length).toBeGreaterThan(100_000);
+    } finally {
+      await app.close();
+    }
+  });
+});
