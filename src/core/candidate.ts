@@ -203,7 +203,8 @@ function measureCorners(plan: Plan, trace: Trace, startS: number, traceS: Float6
   const n = curvature.length;
   const raw = plan.corners.map((c, i) => {
     const endS = trace.cornerEnd[i] < trace.s.length ? trace.s[trace.cornerEnd[i]] : lapM;
-    // the corner spans whole samples, its ends where the curvature has fallen to zero
+    // the corner spans whole samples, widened to the samples just outside its ends (where the
+    // curvature is zero); straights of at least MIN_STRAIGHT_M keep neighbours from overlapping
     const first = Math.max(0, Math.floor(toSpline(trace.s[trace.cornerStart[i]]) / spacing));
     let last = Math.ceil(toSpline(endS) / spacing);
     if (last <= first) last = n;

@@ -3,17 +3,16 @@ import { localArcM } from '../validate/clearance.js';
 import type { PlannedCorner } from './plan-types.js';
 
 /**
- * How badly a planned lap overlaps itself, measured on its coarse outline: each corner drawn as
- * two chords (entry → middle → exit) and each straight as one segment. Pairs of segments far
- * apart along the lap (beyond the local arc of `localArcM`) that come closer than `requiredM`
- * add their shortfall. Zero means the outline keeps its distance; the traced lap is then checked
- * exactly. O(m²) in the 3n segments, which is cheap against tracing for n <= 80 corners.
+ * Whether a planned lap overlaps itself, judged on its coarse outline: each corner drawn as two
+ * chords (entry → middle → exit) and each straight as one segment. Two segments far apart along
+ * the lap (beyond the local arc of `localArcM`) that come closer than `requiredM` overlap. When
+ * the outline keeps its distance, the traced lap is then checked exactly.
  *
  * @param local per corner [mid x, mid y, end x, end y] from (0, 0) at heading 0 (cornerDisplacement)
  * @param straights straight after each corner, metres
- * @returns total shortfall, metres (0 = no overlap)
+ * @returns true at the first pair that comes too close
  */
-export function macroOverlap(corners: readonly PlannedCorner[], local: Float64Array, straights: Float64Array, requiredM: number, minRadiusM: number, out?: Float64Array): number {
+export function macroOverlap(corners: readonly PlannedCorner[], local: Float64Array, straights: Float64Array, requiredM: number, minRadiusM: number, out?: Float64Array): boolean {
   const n = corners.length;
   const m = 3 * n;
   const v = out ?? new Float64Array(2 * m);
@@ -41,19 +40,34 @@ export function macroOverlap(corners: readonly PlannedCorner[], local: Float64Ar
   s[m] = pos;
   const lap = pos;
   const exempt = localArcM(requiredM, minRadiusM);
-  let shortfall = 0;
+  // sweep and prune: segments sorted by their box's left edge, each compared only with those
+  // whose boxes come within requiredM; the first shortfall ends the search
+  const box = new Float64Array(4 * m);
+  const order = new Array<number>(m);
   for (let a = 0; a < m; a++) {
     const a1 = a + 1 === m ? 0 : a + 1;
-    for (let b = a + 2; b < m; b++) {
-      if (a === 0 && b === m - 1) continue;
+    box[4 * a] = Math.min(v[2 * a], v[2 * a1]);
+    box[4 * a + 1] = Math.min(v[2 * a + 1], v[2 * a1 + 1]);
+    box[4 * a + 2] = Math.max(v[2 * a], v[2 * a1]);
+    box[4 * a + 3] = Math.max(v[2 * a + 1], v[2 * a1 + 1]);
+    order[a] = a;
+  }
+  order.sort((x, y) => box[4 * x] - box[4 * y]);
+  for (let ia = 0; ia < m; ia++) {
+    const a = order[ia];
+    const reachX = box[4 * a + 2] + requiredM;
+    for (let ib = ia + 1; ib < m; ib++) {
+      const b = order[ib];
+      if (box[4 * b] > reachX) break;
+      if (box[4 * b + 1] > box[4 * a + 3] + requiredM || box[4 * a + 1] > box[4 * b + 3] + requiredM) continue;
+      const lo = a < b ? a : b, hi = a < b ? b : a;
+      if (hi - lo < 2 || (lo === 0 && hi === m - 1)) continue;
       // separation along the lap between the two pieces
-      const gapFwd = s[b] - s[a + 1];
-      const gapBack = lap - s[b + 1] + s[a];
-      if (Math.min(gapFwd, gapBack) <= exempt) continue;
-      const b1 = b + 1 === m ? 0 : b + 1;
+      if (Math.min(s[hi] - s[lo + 1], lap - s[hi + 1] + s[lo]) <= exempt) continue;
+      const a1 = a + 1 === m ? 0 : a + 1, b1 = b + 1 === m ? 0 : b + 1;
       const d = segmentSegmentDistance(v[2 * a], v[2 * a + 1], v[2 * a1], v[2 * a1 + 1], v[2 * b], v[2 * b + 1], v[2 * b1], v[2 * b1 + 1]);
-      if (d < requiredM) shortfall += requiredM - d;
+      if (d < requiredM) return true;
     }
   }
-  return shortfall;
+  return false;
 }

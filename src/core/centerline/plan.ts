@@ -149,11 +149,10 @@ function planOnce(p: TrackParams, rng: Rng, noise: LoopNoise, loopSign: 1 | -1, 
   const wish = new Float64Array(n);
   const weight = new Float64Array(n);
   let best: Float64Array | null = null;
-  let bestCost = Infinity;
   // the outline's pieces must stay two road reaches and the margin apart
   const required = p.widthM.max + 2 * p.wall.thicknessM + p.clearanceM;
   const outline = new Float64Array(6 * n);
-  for (let draw = 0; draw < WISH_DRAWS; draw++) {
+  for (let draw = 0; draw < WISH_DRAWS && best === null; draw++) {
     let wishSum = 0;
     for (let i = 0; i < n; i++) {
       wish[i] = inside[i] ? uniform(rng, 0.02, 0.12) : Math.exp(STRAIGHT_SIGMA * normal(rng));
@@ -164,15 +163,9 @@ function planOnce(p: TrackParams, rng: Rng, noise: LoopNoise, loopSign: 1 | -1, 
       weight[i] = Math.max(wish[i], 5);
     }
     const d = solveStraights(cosH, sinH, wish, weight, lo, rx, ry, straightTotal);
-    if (d === null) continue;
-    const cost = macroOverlap(corners, local, d, required, p.minCornerRadiusM, outline);
-    if (cost < bestCost) {
-      bestCost = cost;
-      best = d;
-      if (cost === 0) break;
-    }
+    if (d !== null && !macroOverlap(corners, local, d, required, p.minCornerRadiusM, outline)) best = d;
   }
-  if (best === null || bestCost > 0) return null;
+  if (best === null) return null;
   const straights = best;
   return { corners, straights, loopSign, lengthM: p.lengthM };
 }

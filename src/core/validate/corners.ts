@@ -3,7 +3,7 @@ import type { TrackParams } from '../params/types.js';
 import type { Corner } from '../track.js';
 import type { TrackGeometry } from './geometry.js';
 import { num, type IssueSink } from './issue-sink.js';
-import { headingAt } from './measure.js';
+import { segmentAt } from './measure.js';
 
 const DEG = 180 / Math.PI;
 
@@ -60,7 +60,7 @@ function cornerProblem(g: TrackGeometry, corners: readonly Corner[], k: number, 
   if (!(c.minRadiusM >= minRadiusM)) {
     return { limit: minRadiusM, actual: c.minRadiusM, message: `minRadiusM ${num(c.minRadiusM)} m < ${minRadiusM} m` };
   }
-  const measured = (headingAt(g, c.sEnd) - headingAt(g, c.sStart)) * DEG;
+  const measured = cornerTurningRad(g, c.sStart, c.sEnd) * DEG;
   const want = c.direction === 'left' ? c.angleDeg : -c.angleDeg;
   const tol = Math.max(CORNER_ANGLE_TOL_DEG, CORNER_ANGLE_TOL_SHARE * Math.abs(c.angleDeg));
   if (Math.abs(measured - want) > tol) {
@@ -71,4 +71,19 @@ function cornerProblem(g: TrackGeometry, corners: readonly Corner[], k: number, 
     };
   }
   return null;
+}
+
+/**
+ * Signed turning of the shipped polyline from the segment arriving at sStart to the segment
+ * leaving sEnd (the exterior angles between, summed). A corner's ends lie on the straights beside
+ * it (the generator widens each corner to the samples just outside its ends, and corners are
+ * at least two samples apart), so both segments point along the road: the full turning is
+ * measured, whatever the corner's length, and rounding moves each end by < 0.1°.
+ */
+export function cornerTurningRad(g: TrackGeometry, sStart: number, sEnd: number): number {
+  const quarter = g.lapM / g.n / 4;
+  const net = g.headingRad[g.n] - g.headingRad[0];
+  // unwrapped heading of the segment holding lap position s (which may lie beyond either end of the lap)
+  const headingOf = (s: number) => g.headingRad[segmentAt(g, s)] + Math.floor(s / g.lapM) * net;
+  return headingOf(sEnd + quarter) - headingOf(sStart - quarter);
 }
