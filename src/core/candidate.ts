@@ -130,8 +130,8 @@ function shipTrack(
   }));
 
   const corners = measureCorners(plan, trace, startS, traceS, controlSplineS, curvature, curve.tangents, spacing, L);
-  // the clearance metric: a quick bound from every 4th vertex, then the exact minimum below it
-  const clearanceInput = {
+  // the clearance metric (the search box shrinks as smaller gaps turn up)
+  const clearance = checkClearance({
     points: curve.points,
     s: curve.s,
     lapLengthM: L,
@@ -139,9 +139,8 @@ function shipTrack(
     marginM: p.clearanceM,
     minRadiusM: p.minCornerRadiusM,
     maxViolations: 1,
-  };
-  const bound = checkClearance({ ...clearanceInput, measureBeyondM: CLEARANCE_MEASURE_M, stride: 4 }).minGapM;
-  const clearance = checkClearance({ ...clearanceInput, measureBeyondM: Math.max(0, bound) + 1e-9 });
+    measureBeyondM: CLEARANCE_MEASURE_M,
+  });
   const m = trackMetrics({ lengthM: L, spacingM: spacing, curvature, widthM, corners, minClearanceM: clearance.minGapM, gateCount: gates.length });
   const controlPoints: Point[] = [];
   for (let j = 0; j < control.length / 2; j++) controlPoints.push([control[2 * j], control[2 * j + 1]]);

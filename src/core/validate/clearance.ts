@@ -1,5 +1,5 @@
 import { pointSegmentDistance } from '../geom/polyline.js';
-import { SegmentIndex } from '../spatial/segment-index.js';
+import { BoxIndex } from '../spatial/box-index.js';
 
 /**
  * Input of the clearance rule: a closed centerline with its lap positions and, per vertex, the
@@ -20,8 +20,6 @@ export interface ClearanceInput {
   /** Also measure gaps up to this much larger than required (for the clearance metric), metres. */
   readonly measureBeyondM?: number;
   readonly maxViolations?: number;
-  /** Query every `stride`-th vertex only (a quick upper bound of the gap); default 1. */
-  readonly stride?: number;
 }
 
 export interface ClearanceViolation {
@@ -48,47 +46,85 @@ export interface ClearanceResult {
  * Δ*(a) = 2R asin(a / 2R) (or πR when a >= 2R) are the same part, and their distance follows
  * from the radius rule; every other pair nearer than a is a genuine violation.
  *
- * Cost: one segment index, one box query per vertex: O(n log n) in practice.
+ * Cost: one box index of chunks of 8 segments, one query per chunk: O(n log n) in practice.
  */
 export function checkClearance(input: ClearanceInput): ClearanceResult {
   const { points, s, lapLengthM, reach, marginM, minRadiusM } = input;
   const beyond = input.measureBeyondM ?? 0;
   const maxViolations = input.maxViolations ?? 16;
   const n = s.length;
-  const index = SegmentIndex.fromPolylines([{ coords: points, closed: true }]);
   let reachMax = 0;
-  let reachMin = Infinity;
-  for (let i = 0; i < n; i++) {
-    if (reach[i] > reachMax) reachMax = reach[i];
-    if (reach[i] < reachMin) reachMin = reach[i];
+  for (let i = 0; i < n; i++) if (reach[i] > reachMax) reachMax = reach[i];
+  // chunks of CHUNK consecutive segments, boxed and indexed; each chunk of vertices queries once
+  const chunks = Math.ceil(n / CHUNK);
+  const index = new BoxIndex(chunks);
+  const box = new Float64Array(4 * chunks);
+  const chunkReach = new Float64Array(chunks);
+  for (let c = 0; c < chunks; c++) {
+    let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity, r = 0;
+    const end = Math.min(n, (c + 1) * CHUNK);
+    for (let k = c * CHUNK; k <= end; k++) {
+      const v = k === n ? 0 : k;
+      const x = points[2 * v], y = points[2 * v + 1];
+      if (x < minX) minX = x;
+      if (x > maxX) maxX = x;
+      if (y < minY) minY = y;
+      if (y > maxY) maxY = y;
+      if (k < end && reach[v] > r) r = reach[v];
+    }
+    box[4 * c] = minX;
+    box[4 * c + 1] = minY;
+    box[4 * c + 2] = maxX;
+    box[4 * c + 3] = maxY;
+    chunkReach[c] = r;
+    index.add(minX, minY, maxX, maxY);
   }
-  // localArcM grows with a: pairs closer than the smallest local arc are local for any a (saves asin calls)
-  const localFloor = localArcM(2 * reachMin + marginM, minRadiusM);
-  const found = new Int32Array(index.numItems);
+  index.finish();
+  // pairs within the local arc of the largest required distance cannot break the rule (Schur,
+  // with the curvature bound the radius rule checks), so one arcsine per vertex suffices
+  const exempt = new Float64Array(n);
+  for (let i = 0; i < n; i++) exempt[i] = localArcM(reach[i] + reachMax + marginM, minRadiusM);
   const violations: ClearanceViolation[] = [];
   let minGap = beyond;
-  const stride = input.stride ?? 1;
-  for (let i = 0; i < n; i += stride) {
-    const px = points[2 * i], py = points[2 * i + 1];
+  for (let a = 0; a < chunks; a++) {
+    const aFrom = a * CHUNK, aTo = Math.min(n, aFrom + CHUNK);
     // the box shrinks as the smallest gap found so far shrinks (branch and bound on the metric)
-    const q = reach[i] + reachMax + marginM + Math.max(0, minGap);
-    // pairs within the local arc of the largest required distance cannot break the rule (Schur,
-    // with the curvature bound the radius rule checks), so one arcsine per vertex suffices
-    const exempt = localArcM(reach[i] + reachMax + marginM, minRadiusM);
-    const count = index.searchInto(px - q, py - q, px + q, py + q, found);
-    for (let k = 0; k < count; k++) {
-      const j = index.segment(found[k]);
-      const j1 = j + 1 === n ? 0 : j + 1;
-      const ds = Math.min(cyclicGap(s[i], s[j], lapLengthM), cyclicGap(s[i], s[j1], lapLengthM));
-      if (ds <= exempt) continue;
-      const a = reach[i] + Math.max(reach[j], reach[j1]) + marginM;
-      const d = pointSegmentDistance(px, py, points[2 * j], points[2 * j + 1], points[2 * j1], points[2 * j1 + 1]);
-      const gap = d - (a - marginM);
-      if (gap < minGap) minGap = gap;
-      if (d < a && violations.length < maxViolations) violations.push({ i, j, distanceM: d, requiredM: a });
+    const q = chunkReach[a] + reachMax + marginM + Math.max(0, minGap);
+    let aExempt = Infinity;
+    for (let i = aFrom; i < aTo; i++) if (exempt[i] < aExempt) aExempt = exempt[i];
+    const found = index.search(box[4 * a] - q, box[4 * a + 1] - q, box[4 * a + 2] + q, box[4 * a + 3] + q);
+    for (const b of found) {
+      const bFrom = b * CHUNK, bTo = Math.min(n, bFrom + CHUNK);
+      // a whole chunk pair within the smallest local arc is the same part of the lap
+      if (farthestAlongLap(s, aFrom, aTo - 1, bFrom, bTo, n, lapLengthM) <= aExempt) continue;
+      for (let i = aFrom; i < aTo; i++) {
+        const px = points[2 * i], py = points[2 * i + 1];
+        const qi = reach[i] + reachMax + marginM + Math.max(0, minGap);
+        if (px < box[4 * b] - qi || px > box[4 * b + 2] + qi || py < box[4 * b + 1] - qi || py > box[4 * b + 3] + qi) continue;
+        for (let j = bFrom; j < bTo; j++) {
+          const j1 = j + 1 === n ? 0 : j + 1;
+          const ds = Math.min(cyclicGap(s[i], s[j], lapLengthM), cyclicGap(s[i], s[j1], lapLengthM));
+          if (ds <= exempt[i]) continue;
+          const a2 = reach[i] + Math.max(reach[j], reach[j1]) + marginM;
+          const d = pointSegmentDistance(px, py, points[2 * j], points[2 * j + 1], points[2 * j1], points[2 * j1 + 1]);
+          const gap = d - (a2 - marginM);
+          if (gap < minGap) minGap = gap;
+          if (d < a2 && violations.length < maxViolations) violations.push({ i, j, distanceM: d, requiredM: a2 });
+        }
+      }
     }
   }
   return { minGapM: minGap, violations };
+}
+
+/** Segments per indexed chunk: fewer, larger boxes, so local stretches are skipped wholesale. */
+const CHUNK = 8;
+
+// largest lap distance between a vertex of [aFrom, aTo] and a vertex of [bFrom, bTo] (cyclic; the
+// ranges are contiguous, so it is reached at their ends)
+function farthestAlongLap(s: Float64Array, aFrom: number, aTo: number, bFrom: number, bTo: number, n: number, lap: number): number {
+  const b1 = bTo === n ? 0 : bTo;
+  return Math.max(cyclicGap(s[aFrom], s[bFrom], lap), cyclicGap(s[aFrom], s[b1], lap), cyclicGap(s[aTo], s[bFrom], lap), cyclicGap(s[aTo], s[b1], lap));
 }
 
 /**
