@@ -58,6 +58,7 @@ export const INFEASIBLE_REASONS = [
   'corners_too_long',
   'gate_spacing_vs_length',
   'spawns_too_long',
+  'spawns_too_wide',
   'no_valid_layout',
 ] as const;
 

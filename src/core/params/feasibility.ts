@@ -9,6 +9,8 @@ export const MAX_CORNER_ANGLE_DEG = 230;
 export const FULLEST_CORNER_SHAPE_MEAN = 0.85;
 /** Straight left between consecutive corners at the least, metres. */
 export const MIN_STRAIGHT_M = 2;
+/** Room left beside a car at a start pose on the narrowest road, metres, each side. */
+export const MIN_CAR_SIDE_GAP_M = 0.1;
 /** Share of the lap the starting grid may take at most. */
 export const MAX_GRID_SHARE = 0.5;
 
@@ -52,7 +54,7 @@ export function minimumLapLengthM(p: TrackParams): number {
  * hint that names the parameter to change and how far (shared/DESIGN.md, "Feasibility").
  *
  * @throws InfeasibleError with reason turning_vs_balance, turning_too_low, corner_angle_too_large,
- *   radius_vs_width, corners_too_long, gate_spacing_vs_length or spawns_too_long
+ *   radius_vs_width, corners_too_long, gate_spacing_vs_length, spawns_too_wide or spawns_too_long
  */
 export function checkFeasibility(p: TrackParams, gridLengthM: number): void {
   const split = splitTurning(p);
@@ -103,6 +105,13 @@ export function checkFeasibility(p: TrackParams, gridLengthM: number): void {
       'gate_spacing_vs_length',
       `no whole number of gates spaces a ${p.lengthM} m lap between ${p.gateSpacingM.min} and ${p.gateSpacingM.max} m`,
       `widen gateSpacingM (e.g. min ${fmt(p.lengthM / fewest)}), or set lengthM to a multiple of the spacing`,
+    );
+  }
+  if (p.car.widthM + 2 * MIN_CAR_SIDE_GAP_M >= p.widthM.min) {
+    throw new InfeasibleError(
+      'spawns_too_wide',
+      `a ${p.car.widthM} m wide car does not fit on the narrowest road (${p.widthM.min} m) with ${MIN_CAR_SIDE_GAP_M} m each side`,
+      `raise widthM.min above ${fmt(p.car.widthM + 2 * MIN_CAR_SIDE_GAP_M)} m, or give a narrower car.widthM`,
     );
   }
   if (gridLengthM > MAX_GRID_SHARE * p.lengthM) {
