@@ -117,7 +117,8 @@ function shipTrack(
     const t = x - i;
     const lx = lerp(leftFace[2 * i], leftFace[2 * j], t), ly = lerp(leftFace[2 * i + 1], leftFace[2 * j + 1], t);
     const rx = lerp(rightFace[2 * i], rightFace[2 * j], t), ry = lerp(rightFace[2 * i + 1], rightFace[2 * j + 1], t);
-    const len = Math.hypot(lx - rx, ly - ry);
+    const gx = lx - rx, gy = ly - ry;
+    const len = Math.sqrt(gx * gx + gy * gy);
     gates.push({ index: k, s: gs, left: [r3(lx), r3(ly)], right: [r3(rx), r3(ry)], forward: [r6((ly - ry) / len), r6(-(lx - rx) / len)] });
   }
 

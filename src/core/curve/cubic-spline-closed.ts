@@ -31,7 +31,9 @@ export function cubicSplineClosed(control: Float64Array): ClosedSpline {
   const h = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const j = i + 1 === n ? 0 : i + 1;
-    const d = Math.hypot(p[2 * j] - p[2 * i], p[2 * j + 1] - p[2 * i + 1]);
+    const dx = p[2 * j] - p[2 * i], dy = p[2 * j + 1] - p[2 * i + 1];
+    // sqrt of a sum of squares is exact IEEE on every engine (Math.hypot is not specified to the bit)
+    const d = Math.sqrt(dx * dx + dy * dy);
     if (!(d >= MIN_CHORD_M) || !Number.isFinite(d)) {
       throw new RangeError(`control points ${i} and ${j} are ${d} m apart (need finite and >= ${MIN_CHORD_M} m): remove the duplicate point`);
     }

@@ -58,7 +58,7 @@ export function placeSpawns(grid: GridLayout, points: Float64Array, tangents: Fl
     const lat = grid.columns === 2 ? (k % 2 === 0 ? grid.lateralM : -grid.lateralM) : 0;
     const tx = lerp(tangents[2 * i], tangents[2 * j], t), ty = lerp(tangents[2 * i + 1], tangents[2 * j + 1], t);
     const nx = lerp(normals[2 * i], normals[2 * j], t), ny = lerp(normals[2 * i + 1], normals[2 * j + 1], t);
-    const nn = Math.hypot(nx, ny);
+    const nn = Math.sqrt(nx * nx + ny * ny);
     out.push({
       x: lerp(points[2 * i], points[2 * j], t) + (lat * nx) / nn,
       y: lerp(points[2 * i + 1], points[2 * j + 1], t) + (lat * ny) / nn,
