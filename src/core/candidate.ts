@@ -30,6 +30,9 @@ export const CLEARANCE_MEASURE_M = 50;
 /** Bumps of the corner-shape noise around the lap (each corner reads 2% of the loop). */
 const SHAPE_NOISE_CYCLES = 50;
 
+/** Step of the thinned trace the coarse clearance filter runs on, metres. */
+const COARSE_STEP_M = 4;
+
 /** A candidate track (id still empty), or the stage that refused this attempt. */
 export type Candidate = { readonly track: Track; readonly stage: 'built' } | { readonly track: null; readonly stage: 'plan' | 'clearance' | 'min_radius' | 'gates' };
 
@@ -41,13 +44,16 @@ export function buildCandidate(p: TrackParams, split: TurnSplit, grid: GridLayou
   const startS = chooseStartS(plan, trace, grid.lengthM);
   const width = widthProfile(p.widthM, p.noise, p.lengthM, stream(p.seed, attempt, 'width'));
 
-  // cheap refusal before any spline work: distant parts of the planned lap too close
-  const traceReach = new Float64Array(trace.s.length);
-  for (let k = 0; k < traceReach.length; k++) {
-    traceReach[k] = width(((trace.s[k] - startS + plan.lengthM) % plan.lengthM) / plan.lengthM) / 2 + p.wall.thicknessM;
-  }
-  const coarse = checkClearance({ points: trace.points, s: trace.s, lapLengthM: plan.lengthM, reach: traceReach, marginM: p.clearanceM + PLAN_STEP_M / 8, minRadiusM: p.minCornerRadiusM, maxViolations: 1 });
-  if (coarse.violations.length > 0) return { track: null, stage: 'clearance' };
+  // cheap refusal before any spline work: distant parts of the planned lap too close, judged on
+  // the trace thinned to COARSE_STEP_M (a lenient filter: chords cut corners by at most
+  // step² / 8R, so the margin is lowered by that; the checker decides on the shipped track)
+  const coarse = thinTrace(trace, COARSE_STEP_M);
+  const m = coarse.s.length;
+  const reach = new Float64Array(m);
+  for (let k = 0; k < m; k++) reach[k] = width(((coarse.s[k] - startS + plan.lengthM) % plan.lengthM) / plan.lengthM) / 2 + p.wall.thicknessM;
+  const sag = (COARSE_STEP_M * COARSE_STEP_M) / (8 * p.minCornerRadiusM);
+  const near = checkClearance({ points: coarse.points, s: coarse.s, lapLengthM: plan.lengthM, reach, marginM: Math.max(0, p.clearanceM - sag), minRadiusM: p.minCornerRadiusM, maxViolations: 1 });
+  if (near.violations.length > 0) return { track: null, stage: 'clearance' };
 
   const { control, traceS } = placeControlPoints(plan, trace, startS);
   const spline = cubicSplineClosed(control);
@@ -227,6 +233,26 @@ function measureCorners(plan: Plan, trace: Trace, startS: number, traceS: Float6
     sStart: r3(c.sStart),
     sEnd: r3(c.sEnd),
   }));
+}
+
+// every trace vertex at least `step` metres along the lap after the last one kept
+function thinTrace(trace: Trace, step: number): { points: Float64Array; s: Float64Array } {
+  const keep: number[] = [];
+  let last = -Infinity;
+  for (let k = 0; k < trace.s.length; k++) {
+    if (trace.s[k] - last >= step) {
+      keep.push(k);
+      last = trace.s[k];
+    }
+  }
+  const points = new Float64Array(2 * keep.length);
+  const s = new Float64Array(keep.length);
+  keep.forEach((k, i) => {
+    points[2 * i] = trace.points[2 * k];
+    points[2 * i + 1] = trace.points[2 * k + 1];
+    s[i] = trace.s[k];
+  });
+  return { points, s };
 }
 
 function degrees(rad: number): number {
