@@ -80,10 +80,12 @@ export function checkClearance(input: ClearanceInput): ClearanceResult {
     index.add(minX, minY, maxX, maxY);
   }
   index.finish();
-  // pairs within the local arc of the largest required distance cannot break the rule (Schur,
-  // with the curvature bound the radius rule checks), so one arcsine per vertex suffices
+  // pairs within the local arc of the largest required distance are the same part of the lap
+  // (one arcsine per vertex). When only violations are wanted, every pair up to πR apart along
+  // the lap is skipped: beyond the local arc and up to πR, Schur's bound keeps them farther apart
+  // than required, given the curvature bound the radius rule checks
   const exempt = new Float64Array(n);
-  for (let i = 0; i < n; i++) exempt[i] = localArcM(reach[i] + reachMax + marginM, minRadiusM);
+  for (let i = 0; i < n; i++) exempt[i] = beyond > 0 ? localArcM(reach[i] + reachMax + marginM, minRadiusM) : Math.PI * minRadiusM;
   const violations: ClearanceViolation[] = [];
   let minGap = beyond;
   for (let a = 0; a < chunks; a++) {
