@@ -27,7 +27,7 @@ export const PRESETS: readonly Preset[] = [
   },
   {
     name: 'steady',
-    description: 'Wide road, six open corners and one the other way: smooth steering in both directions.',
+    description: 'Wide road, six open corners, one of them turning the other way: smooth steering in both directions.',
     params: { lengthM: 1800, widthM: { min: 12, max: 16 }, curvatureBudgetDeg: 640, turnBalance: 0.2, cornerCount: 6, minCornerRadiusM: 28, noise: 0.2 },
   },
   {
