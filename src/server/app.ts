@@ -9,7 +9,6 @@ import Fastify, { type FastifyInstance, type FastifyPluginAsync } from 'fastify'
 import fp from 'fastify-plugin';
 import { createJsonSchemaTransform, jsonSchemaTransformObject } from 'fastify-type-provider-zod';
 import sjson from 'secure-json-parse';
-import { GENERATOR_VERSION } from '../core/index.js';
 import { readPackageVersion } from '../version.js';
 import { type AppOptions, type ResolvedAppOptions, resolveAppOptions } from './config.js';
 import { handleError, handleNotFound } from './error-handler.js';
@@ -95,7 +94,7 @@ export const lapwrightService: FastifyPluginAsync<ResolvedAppOptions> = async (a
       info: {
         title: 'lapwright',
         version: state.version,
-        description: `Closed racing tracks for training driving agents in simulation: seeded, validated, reproducible (generatorVersion ${GENERATOR_VERSION}). Errors answer { statusCode, code, error, message }, plus issues for 400 and 422, reason and hint for 422, and a Retry-After header on 503. Generated layouts are for simulation and games only.`,
+        description: `Closed racing tracks for training driving agents in simulation: seeded, validated, reproducible (same seed, parameters and generatorVersion, same bytes). Errors answer { statusCode, code, error, message }, plus issues for 400 and 422, reason and hint for 422, and a Retry-After header on 503. Generated layouts are for simulation and games only.`,
       },
       servers: [{ url: 'http://127.0.0.1:8080', description: 'npm start with the default PORT and HOST' }],
       tags: [

@@ -4,12 +4,8 @@
  * checks both and the messages match. Values that read as JSON numbers become numbers; anything
  * else stays a string and the schema names it.
  */
-import { SEED_MAX } from '../core/index.js';
 import type { FieldIssue } from '../schema/issues.js';
-
-/** A number as JSON writes it: `8`, `-0.5`, `1e3` (not `0x10`, `Infinity` or `.5`). */
-const JSON_NUMBER = /^-?(0|[1-9]\d*)(\.\d+)?([eE][+-]?\d+)?$/;
-const DIGITS = /^\d+$/;
+import { isPlainObject, readNumberText, readSeedText, setDotted, setOwn } from '../schema/dotted.js';
 
 /** Query keys that are not track parameters. */
 const RESERVED_KEYS = new Set(['format']);
@@ -26,13 +22,7 @@ export interface NestedQuery {
  * else is a string seed (so `/v1/tracks/42` and `/v1/tracks/heldout-42` both work).
  * @example parsePathSeed('42') // 42
  */
-export function parsePathSeed(raw: string): number | string {
-  if (DIGITS.test(raw)) {
-    const n = Number(raw);
-    if (n <= SEED_MAX) return n;
-  }
-  return raw;
-}
+export const parsePathSeed = readSeedText;
 
 /**
  * Builds a request body from a flattened query string and the path seed.
@@ -54,43 +44,22 @@ export function nestQuery(query: Readonly<Record<string, unknown>>, seed: number
       continue;
     }
     const value = Array.isArray(raw) ? raw.map(readValue) : readValue(raw);
-    let target = body;
-    let conflict = false;
-    for (let i = 0; i < parts.length - 1 && !conflict; i++) {
-      const existing = Object.hasOwn(target, parts[i]) ? target[parts[i]] : undefined;
-      if (existing === undefined) {
-        const created: Record<string, unknown> = {};
-        setOwn(target, parts[i], created);
-        target = created;
-      } else if (isPlainObject(existing)) {
-        target = existing;
-      } else {
-        conflict = true;
-      }
+    const head = parts[0];
+    if (isPlainObject(valueAt(body, parts)) || setDotted(body, parts, value) !== null) {
+      issues.push({ path: head, message: `query sets ${JSON.stringify(head)} both as a value and as an object (${JSON.stringify(key)}); use the dotted keys only` });
     }
-    const last = parts[parts.length - 1];
-    if (!conflict && Object.hasOwn(target, last) && isPlainObject(target[last])) conflict = true;
-    if (conflict) {
-      issues.push({ path: parts[0], message: `query sets ${JSON.stringify(parts[0])} both as a value and as an object (${JSON.stringify(key)}); use the dotted keys only` });
-      continue;
-    }
-    setOwn(target, last, value);
   }
   setOwn(body, 'seed', seed);
   return { body, issues };
 }
 
+// what the body holds at a dotted path, if anything
+function valueAt(body: Record<string, unknown>, parts: readonly string[]): unknown {
+  let node: unknown = body;
+  for (const p of parts) node = isPlainObject(node) && Object.hasOwn(node, p) ? node[p] : undefined;
+  return node;
+}
+
 function readValue(raw: unknown): unknown {
-  if (typeof raw !== 'string') return raw;
-  const trimmed = raw.trim();
-  return JSON_NUMBER.test(trimmed) ? Number(trimmed) : raw;
-}
-
-function isPlainObject(value: unknown): value is Record<string, unknown> {
-  return typeof value === 'object' && value !== null && !Array.isArray(value);
-}
-
-// an own data property even for keys like __proto__, so the schema reports them as unknown fields
-function setOwn(target: Record<string, unknown>, key: string, value: unknown): void {
-  Object.defineProperty(target, key, { value, enumerable: true, writable: true, configurable: true });
+  return typeof raw === 'string' ? readNumberText(raw) : raw;
 }

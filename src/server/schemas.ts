@@ -3,7 +3,7 @@
  * from src/schema). They document the API: the OpenAPI document is generated from them.
  */
 import { z } from 'zod';
-import { GENERATOR_VERSION, ISSUE_CODES, SEED_MAX, SEED_STRING_MAX_CHARS } from '../core/index.js';
+import { ISSUE_CODES, SEED_MAX, SEED_STRING_MAX_CHARS } from '../core/index.js';
 import { expectedError, objectError } from '../schema/messages.js';
 import { trackRequestSchema } from '../schema/params.js';
 import { trackSchema } from '../schema/track.js';
@@ -80,7 +80,7 @@ export const errorSchema = z
 export const healthSchema = z.object({
   status: z.literal('ok'),
   version: z.string().meta({ description: 'Package version of the service.' }),
-  generatorVersion: z.string().meta({ description: `Version of the generator's output (${GENERATOR_VERSION} here): same seed + parameters + generatorVersion, same bytes.` }),
+  generatorVersion: z.string().meta({ description: "Version of the generator's output: same seed + parameters + generatorVersion, same bytes." }),
 });
 
 /** GET /readyz when ready. */

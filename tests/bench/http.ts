@@ -9,9 +9,9 @@
  * machine and on whatever else runs on it: compare runs made on the same machine.
  */
 import { spawn, spawnSync } from 'node:child_process';
-import { createServer } from 'node:net';
 import { fileURLToPath } from 'node:url';
 import autocannon from 'autocannon';
+import { freePort } from '../helpers/free-port.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const WORKERS = Number(process.env.BENCH_WORKERS ?? 2);
@@ -80,18 +80,6 @@ async function waitReady(base: string): Promise<void> {
     await new Promise((r) => setTimeout(r, 100));
   }
   throw new Error('the server did not become ready');
-}
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const probe = createServer();
-    probe.once('error', reject);
-    probe.listen(0, '127.0.0.1', () => {
-      const address = probe.address();
-      const port = typeof address === 'object' && address !== null ? address.port : 0;
-      probe.close(() => resolve(port));
-    });
-  });
 }
 
 function round(x: number): number {

@@ -12,10 +12,10 @@
  */
 import { type ChildProcess, spawn } from 'node:child_process';
 import { cp, mkdir, mkdtemp, readFile, rm } from 'node:fs/promises';
-import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { isAbsolute, join, relative } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { freePort } from '../helpers/free-port.js';
 
 /** How long the started server may take to log that it listens, ms. */
 const START_TIMEOUT_MS = 30_000;
@@ -304,18 +304,6 @@ function isIgnored(path: string, patterns: readonly string[]): boolean {
     const re = new RegExp(`^${pattern.replace(/[.+^${}()|[\]\\]/g, '\\$&').replace(/\*\*/g, '\u0000').replace(/\*/g, '[^/]*').replace(/\u0000/g, '.*')}$`);
     for (let i = 1; i <= parts.length; i++) if (re.test(parts.slice(0, i).join('/'))) return true;
     return false;
-  });
-}
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = createServer();
-    server.once('error', reject);
-    server.listen(0, '127.0.0.1', () => {
-      const address = server.address();
-      const port = typeof address === 'object' && address !== null ? address.port : 0;
-      server.close(() => resolve(port));
-    });
   });
 }
 
