@@ -66,5 +66,12 @@ function noLayoutHint(p: TrackParams, failures: Map<string, number>): string {
   if (top === 'clearance') return `give the layout more room: raise lengthM (e.g. to ${Math.ceil(p.lengthM * 1.3)}), lower cornerCount or curvatureBudgetDeg, or narrow widthM`;
   if (top === 'min_radius') return `raise lengthM or lower minCornerRadiusM, so that corners need not sit at the radius limit`;
   if (top === 'gates') return `widen gateSpacingM`;
+  // few corners against the loop's direction carrying a large share: each is a spiral hairpin
+  const split = splitTurning(p);
+  const minority = Math.min(split.leftCount, split.rightCount);
+  const minorityMean = minority > 0 ? Math.min(split.leftTurningDeg, split.rightTurningDeg) / minority : 0;
+  if (minorityMean > 150) {
+    return `the ${minority} corners against the loop's direction must turn ${Math.round(minorityMean)} degrees each: move turnBalance towards 0.5 or lower curvatureBudgetDeg, or raise lengthM`;
+  }
   return `raise lengthM (e.g. to ${Math.ceil(p.lengthM * 1.3)}), or lower cornerCount or curvatureBudgetDeg`;
 }
