@@ -27,6 +27,16 @@ export const MAX_ATTEMPTS = 64;
  * @example generateTrack({ seed: 7 }).metrics.cornerCount // 9
  */
 export function generateTrack(request: TrackRequest): Track {
+  return generateTrackJson(request).track;
+}
+
+/**
+ * `generateTrack`, also returning the track's JSON text — exactly `JSON.stringify(track)` — made
+ * while computing the id, so a shell that ships the bytes need not serialize the track again.
+ *
+ * @throws InfeasibleError as generateTrack
+ */
+export function generateTrackJson(request: TrackRequest): { readonly track: Track; readonly json: string } {
   const p = resolveParams(request);
   const grid = gridLayout(p);
   checkFeasibility(p, grid.lengthM);
@@ -53,12 +63,16 @@ export function generateTrack(request: TrackRequest): Track {
   );
 }
 
-/** The track with its id: hex sha256 of the canonical JSON of every other field. */
-export function withId(track: Track): Track {
+/**
+ * The track with its id — hex sha256 of the canonical JSON of every other field — and the JSON
+ * of the whole track, made by inserting the id after the leading format field of that text.
+ */
+export function withId(track: Track): { readonly track: Track; readonly json: string } {
   const { format, id: _unused, ...rest } = track;
-  const body = { format, ...rest };
-  const id = createHash('sha256').update(JSON.stringify(body)).digest('hex');
-  return { format, id, ...rest };
+  const body = JSON.stringify({ format, ...rest });
+  const id = createHash('sha256').update(body).digest('hex');
+  const head = `{"format":${JSON.stringify(format)},`;
+  return { track: { format, id, ...rest }, json: `${head}"id":"${id}",${body.slice(head.length)}` };
 }
 
 function noLayoutHint(p: TrackParams, failures: Map<string, number>): string {

@@ -1,7 +1,7 @@
 /**
  * Public surface of the core (explicit exports only). Shells (server, CLI, web) import from here.
  */
-export { generateTrack } from './generate.js';
+export { generateTrack, generateTrackJson } from './generate.js';
 export { validateTrack } from './validate/index.js';
 export { resolveParams, deriveCornerCount } from './params/resolve.js';
 export { checkFeasibility, splitTurning } from './params/feasibility.js';

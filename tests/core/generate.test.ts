@@ -3,7 +3,7 @@
 import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { fc, test } from '@fast-check/vitest';
-import { generateTrack, MAX_ATTEMPTS } from '../../src/core/generate.js';
+import { generateTrack, generateTrackJson, MAX_ATTEMPTS } from '../../src/core/generate.js';
 import { InfeasibleError, isInfeasibleError } from '../../src/core/errors.js';
 import { LIMITS } from '../../src/core/params/defaults.js';
 import type { TrackRequest } from '../../src/core/params/types.js';
@@ -61,6 +61,14 @@ describe('generateTrack', () => {
     const { id, ...rest } = a;
     expect(id).toBe(createHash('sha256').update(JSON.stringify(rest)).digest('hex'));
     expect(Object.keys(a)).toEqual(['format', 'id', 'seed', 'generatorVersion', 'params', 'attempts', 'centerline', 'walls', 'gates', 'spawns', 'corners', 'metrics']);
+  });
+
+  it('generateTrackJson gives exactly the bytes of JSON.stringify(track)', () => {
+    for (const request of [{ seed: 11 }, { seed: 'ünïcode seed ⛳', lengthM: 800, cornerCount: 6 }]) {
+      const { track, json } = generateTrackJson(request);
+      expect(json).toBe(JSON.stringify(track));
+      expect(track).toEqual(generateTrack(request));
+    }
   });
 
   it('seeds are roots: another seed gives another track; 7 and "7" are different seeds', () => {
