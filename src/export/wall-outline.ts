@@ -90,5 +90,6 @@ function segmentNormal(face: readonly Point[], a: number, b: number, sign: numbe
   const dx = face[b][0] - face[a][0];
   const dy = face[b][1] - face[a][1];
   const len = Math.hypot(dx, dy);
-  return [(-sign * dy) / len, (sign * dx) / len];
+  // + 0 turns -0 into 0
+  return [(-sign * dy) / len + 0, (sign * dx) / len + 0];
 }
