@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import { SEED_MAX, SEED_STRING_MAX_CHARS } from '../core/index.js';
+import { SVG_DEFAULT_WIDTH_PX, SVG_WIDTH_LIMITS_PX } from '../export/index.js';
 import { trackRequestSchema } from '../schema/params.js';
 import { ENV_VARS, SERVER_DEFAULTS } from '../server/config.js';
 
@@ -22,7 +23,7 @@ export function mainHelp(): string {
 Closed racing tracks for training driving agents: seeded, validated, reproducible.
 
 Commands:
-  generate   generate one track and print its JSON
+  generate   generate one track and print it as JSON (or glb, SVG, CSV)
   validate   check a track file against every guarantee and print {valid, issues}
   serve      run the HTTP service until SIGTERM (see lapwright serve --help)
   batch, verify
@@ -40,9 +41,11 @@ ${EXIT_CODES_TEXT}
 
 /** `lapwright generate --help`. */
 export function generateHelp(): string {
-  return `Usage: lapwright generate [--seed S] [--params FILE | -] [--set KEY=VALUE ...] [--out FILE] [--pretty]
+  return `Usage: lapwright generate [--seed S] [--params FILE | -] [--set KEY=VALUE ...] [--out FILE]
+                          [--format json|glb|svg|csv] [--pretty] [--table centerline|gates] [--width PX] [--heat]
 
-Generates one track (format lapwright.track/1) and prints its JSON to stdout, or writes it to --out.
+Generates one track (format lapwright.track/1) and prints it to stdout, or writes it to --out: as
+JSON by default, or exported as a glTF binary (glb), an SVG drawing or a CSV table.
 The same seed, parameters and generator version give the same bytes.
 
 Options:
@@ -53,7 +56,15 @@ Options:
   --set KEY=VALUE    set one parameter over --params; dotted keys reach nested fields
                      (--set widthM.min=8); numbers are parsed, anything else is a string; repeatable
   --out FILE         write the track to FILE instead of stdout (- is stdout)
-  --pretty           indent the JSON (the default is one line)
+  --format F         json (default): the track itself
+                     glb: 3D scene (road, wall solids, gate trigger boxes, spawn nodes); binary, so
+                          it goes to --out or a redirected stdout, never to a terminal
+                     svg: a drawing (walls, gates, start line, spawns, corners, scale bar)
+                     csv: a table, one row per centerline point (or per gate with --table gates)
+  --pretty           json: indent (the default is one line)
+  --table T          csv: centerline (default) or gates
+  --width PX         svg: width in pixels, ${SVG_WIDTH_LIMITS_PX.min} to ${SVG_WIDTH_LIMITS_PX.max} (default ${SVG_DEFAULT_WIDTH_PX}); the height follows the track
+  --heat             svg: colour the road by |curvature|
   -h, --help         show this help
 Precedence: --params, then each --set in order, then --seed.
 

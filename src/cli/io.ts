@@ -5,9 +5,11 @@
 import { readFile, writeFile } from 'node:fs/promises';
 import type { FieldIssue } from '../schema/issues.js';
 
-/** Where text goes: `process.stdout`, `process.stderr` or a test's capture. */
+/** Where text (or a binary export's bytes) goes: `process.stdout`, `process.stderr` or a test's capture. */
 export interface TextSink {
-  write(chunk: string, callback: (error?: Error | null) => void): boolean;
+  write(chunk: string | Uint8Array, callback: (error?: Error | null) => void): boolean;
+  /** true when the sink is a terminal (process.stdout.isTTY); binary data is never written to one */
+  readonly isTTY?: boolean;
   on?(event: 'error', listener: (error: Error) => void): unknown;
   off?(event: 'error', listener: (error: Error) => void): unknown;
 }
@@ -58,23 +60,23 @@ export async function readJson(name: string, io: CliIo, what: string): Promise<u
 }
 
 /**
- * Writes text to a file, or to stdout for `-`.
+ * Writes text (UTF-8) or bytes to a file, or to stdout for `-`.
  * @throws InputError when the file cannot be written
  */
-export async function writeOutput(name: string, text: string, io: CliIo): Promise<void> {
-  if (name === STDIO_NAME) return writeText(io.stdout, text);
+export async function writeOutput(name: string, data: string | Uint8Array, io: CliIo): Promise<void> {
+  if (name === STDIO_NAME) return writeText(io.stdout, data);
   try {
-    await writeFile(name, text, 'utf8');
+    await (typeof data === 'string' ? writeFile(name, data, 'utf8') : writeFile(name, data));
   } catch (err) {
     throw new InputError(`cannot write --out file ${quoteName(name)}: ${messageOf(err)}`);
   }
 }
 
 /**
- * Writes text and resolves once the sink has taken it. A reader that went away (EPIPE, as in
- * `lapwright generate | head -c 100`) is not an error: there is no one left to tell.
+ * Writes text (or bytes) and resolves once the sink has taken it. A reader that went away
+ * (EPIPE, as in `lapwright generate | head -c 100`) is not an error: there is no one left to tell.
  */
-export function writeText(sink: TextSink, text: string): Promise<void> {
+export function writeText(sink: TextSink, text: string | Uint8Array): Promise<void> {
   return new Promise((resolve, reject) => {
     const settle = (err?: Error | null): void => {
       if (err && (err as NodeJS.ErrnoException).code !== 'EPIPE') reject(err);

@@ -56,4 +56,21 @@ describe('bin/lapwright.js', () => {
     expect(generated.stdout).toBe(JSON.stringify(generateTrack({ seed: 7 })) + '\n');
     expect(lapwright(['validate', '-'], generated.stdout)).toEqual({ code: 0, stdout: '{"valid":true,"issues":[]}\n', stderr: '' });
   });
+
+  it('a glb goes through the stdout pipe as raw bytes (GLB header: magic, version 2, total length)', () => {
+    const r = spawnSync(process.execPath, [join(pkgDir, 'bin/lapwright.js'), 'generate', '--seed', '7', '--set', 'lengthM=600', '--format', 'glb'], { maxBuffer: 64 * 1024 * 1024 });
+    expect(r.status).toBe(0);
+    expect(r.stdout.subarray(0, 4).toString('latin1')).toBe('glTF');
+    expect(r.stdout.readUInt32LE(4)).toBe(2);
+    expect(r.stdout.readUInt32LE(8)).toBe(r.stdout.length);
+  });
+
+  // util-linux's script(1) gives the command a pseudo-terminal as stdout
+  const hasScript = spawnSync('script', ['--version']).status === 0;
+  it.skipIf(!hasScript)('a glb to a terminal is refused: exit 2 and the message, no bytes', () => {
+    const command = [process.execPath, join(pkgDir, 'bin/lapwright.js'), 'generate', '--seed', '7', '--format', 'glb'].map((a) => `'${a}'`).join(' ');
+    const r = spawnSync('script', ['-qec', command, '/dev/null'], { encoding: 'utf8', input: '' });
+    expect(r.status).toBe(2);
+    expect(r.stdout.replace(/\r/g, '')).toBe('lapwright generate: refusing to write binary glb to a terminal: give --out FILE or redirect stdout (lapwright generate --format glb > track.glb)\n');
+  });
 });
