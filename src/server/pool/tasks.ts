@@ -3,7 +3,7 @@
  * run the core, serialize the track to JSON bytes off the server thread, and turn the core's
  * typed errors into plain data.
  */
-import { generateTrack, isInfeasibleError, validateTrack } from '../../core/index.js';
+import { generateTrackJson, isInfeasibleError, validateTrack } from '../../core/index.js';
 import type { Track } from '../../core/index.js';
 import type { TaskInput, TaskOutput } from './protocol.js';
 
@@ -16,8 +16,10 @@ const ENCODER = new TextEncoder();
 export function runTask(input: TaskInput): { output: TaskOutput; transfer: ArrayBuffer[] } {
   try {
     if (input.kind === 'generate') {
-      const track = generateTrack(input.request);
-      const json = ENCODER.encode(JSON.stringify(track));
+      // the core hands back the JSON it made for the id: no second serialization
+      const made = generateTrackJson(input.request);
+      const track = made.track;
+      const json = ENCODER.encode(made.json);
       return { output: { ok: true, kind: 'generate', id: track.id, seed: track.seed, json }, transfer: [json.buffer as ArrayBuffer] };
     }
     // the server checked the shape with trackSchema; the checker takes it from here
