@@ -83,7 +83,7 @@ export interface EnvVar {
   readonly max?: number;
 }
 
-/** Every environment variable the entry reads (docs/http-service.md repeats this table). */
+/** Every environment variable the entry reads (the README's HTTP service section repeats this table). */
 export const ENV_VARS = {
   port: { name: 'PORT', meaning: 'TCP port to listen on (0 = any free port)', defaultText: String(SERVER_DEFAULTS.port), min: 0, max: 65_535 },
   host: { name: 'HOST', meaning: 'address to listen on (0.0.0.0 in containers)', defaultText: SERVER_DEFAULTS.host },

@@ -9,7 +9,7 @@ import { ERROR_CODES } from '../core/index.js';
 import type { Issue } from '../core/index.js';
 import type { FieldIssue } from '../schema/issues.js';
 
-/** Code → HTTP status, with what each means (docs/http-service.md lists the same table). */
+/** Code → HTTP status, with what each means (the README's HTTP service section lists the same table). */
 export const HTTP_ERRORS = {
   ERR_INVALID_PARAMS: { status: ERROR_CODES.ERR_INVALID_PARAMS.status, meaning: 'track parameters, seed or query string malformed: every offending field is listed in issues' },
   ERR_INVALID_TRACK: { status: ERROR_CODES.ERR_INVALID_TRACK.status, meaning: 'uploaded track malformed (wrong types, missing fields): every offending field is listed in issues' },

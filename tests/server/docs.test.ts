@@ -1,5 +1,5 @@
 /**
- * docs/http-service.md keeps up with the code: every error code with its status, every
+ * the README's HTTP service section keeps up with the code: every error code with its status, every
  * environment variable, every preset with its parameters.
  */
 import { readFile } from 'node:fs/promises';
@@ -8,9 +8,9 @@ import { ENV_VARS } from '../../src/server/config.js';
 import { HTTP_ERRORS } from '../../src/server/errors.js';
 import { PRESETS } from '../../src/server/presets.js';
 
-const DOC = new URL('../../docs/http-service.md', import.meta.url);
+const DOC = new URL('../../README.md', import.meta.url);
 
-describe('docs/http-service.md', () => {
+describe('README, HTTP service', () => {
   it('lists every error code with its status and meaning', async () => {
     const text = await readFile(DOC, 'utf8');
     for (const [code, { status, meaning }] of Object.entries(HTTP_ERRORS)) expect(text).toContain(`| ${status} | \`${code}\` | ${meaning} |`);
