@@ -302,7 +302,7 @@ function heatRoad(track: Track, d: Draw): string {
 }
 
 function gatesGroup(track: Track, d: Draw, showGates: boolean): string {
-  const out: string[] = ['<g id="lw-gates">'];
+  const out: string[] = [`<g id="lw-gates" stroke="${PALETTE.gate}" stroke-width="${d.n(PX.gate * d.m)}" stroke-linecap="butt">`];
   for (const gate of track.gates) {
     if (gate.index === 0) {
       // start/finish: a checker band across the road, long side from the left wall to the right
@@ -321,7 +321,7 @@ function gatesGroup(track: Track, d: Draw, showGates: boolean): string {
     }
   }
   out.push('</g>');
-  return out.join('').replace('<g id="lw-gates">', `<g id="lw-gates" stroke="${PALETTE.gate}" stroke-width="${d.n(PX.gate * d.m)}" stroke-linecap="butt">`);
+  return out.join('');
 }
 
 // an arrow along the centerline just after the start line, in the direction of travel
@@ -365,12 +365,9 @@ function cornersGroup(track: Track, d: Draw): string {
     const reach = half + track.walls.thicknessM + PX.cornerGap * d.m + r;
     const [px, py] = c.points[apex % n];
     const [x, y] = d.p([px - side * reach * Math.sin(h), py + side * reach * Math.cos(h)]);
-    return `<g class="corner" data-index="${corner.index}" data-direction="${corner.direction}"><circle cx="${d.n(x)}" cy="${d.n(y)}" r="${d.n(r)}"/><text x="${d.n(x)}" y="${d.n(y)}" dy="0.35em">${corner.index + 1}</text></g>`;
+    return `<g class="corner" data-index="${corner.index}" data-direction="${corner.direction}"><circle cx="${d.n(x)}" cy="${d.n(y)}" r="${d.n(r)}"/><text x="${d.n(x)}" y="${d.n(y)}" dy="0.35em" fill="${PALETTE.ink}" stroke="none">${corner.index + 1}</text></g>`;
   });
-  return `<g id="lw-corners" fill="${PALETTE.paper}" stroke="${PALETTE.ink}" stroke-width="${d.n(1.2 * d.m)}" font-size="${d.n(PX.cornerText * d.m)}" font-weight="bold" text-anchor="middle">${labels.join('')}</g>`.replace(
-    /<text /g,
-    `<text fill="${PALETTE.ink}" stroke="none" `,
-  );
+  return `<g id="lw-corners" fill="${PALETTE.paper}" stroke="${PALETTE.ink}" stroke-width="${d.n(1.2 * d.m)}" font-size="${d.n(PX.cornerText * d.m)}" font-weight="bold" text-anchor="middle">${labels.join('')}</g>`;
 }
 
 /** Index of the point of largest |curvature| with s in [sStart, sEnd] (wrapping past the start line). */
