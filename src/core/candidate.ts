@@ -13,7 +13,7 @@ import { cubicSplineClosed } from './curve/cubic-spline-closed.js';
 import { resampleClosedSpline, type ResampledCurve } from './curve/resample.js';
 import { placeGates } from './layout/gates.js';
 import { placeSpawns, type GridLayout } from './layout/spawn.js';
-import { widthProfile } from './layout/widths.js';
+import { limitSlopeCyclic, MAX_WIDTH_SLOPE, widthProfile } from './layout/widths.js';
 import { trackMetrics } from './metrics/metrics.js';
 import type { TurnSplit } from './params/feasibility.js';
 import type { TrackParams } from './params/types.js';
@@ -29,6 +29,9 @@ export const CENTERLINE_SPACING_M = 1;
 export const CLEARANCE_MEASURE_M = 50;
 /** Bumps of the corner-shape noise around the lap (each corner reads 2% of the loop). */
 const SHAPE_NOISE_CYCLES = 50;
+
+/** Slope the shipped widths keep: 1 in 20 less what 1 mm rounding of two half widths can add over 5 m. */
+const WIDTH_SLOPE_SHIPPED = 0.95 * MAX_WIDTH_SLOPE;
 
 /** Step of the thinned trace the coarse clearance filter runs on, metres. */
 const COARSE_STEP_M = 4;
@@ -94,8 +97,11 @@ function shipTrack(
   const headingDeg: number[] = new Array(n);
   const leftFace = new Float64Array(2 * n);
   const rightFace = new Float64Array(2 * n);
+  const wanted = new Float64Array(n);
+  for (let i = 0; i < n; i++) wanted[i] = width(i / n);
+  limitSlopeCyclic(wanted, spacing, WIDTH_SLOPE_SHIPPED);
   for (let i = 0; i < n; i++) {
-    const h = r3(width(i / n) / 2);
+    const h = r3(wanted[i] / 2);
     half[i] = h;
     widthM[i] = 2 * h;
     curvature[i] = r6(curve.curvature[i]);

@@ -101,6 +101,18 @@ describe('generateTrack', () => {
     expect(new Set(t.centerline.halfWidthLeftM)).toEqual(new Set([5.5]));
   });
 
+  it('the road width changes by at most 1 in 20 (motorsport practice, REFERENCES.md), measured over 5 m', () => {
+    for (let seed = 0; seed < 6; seed++) {
+      for (const r of [{ noise: 1, widthM: { min: 3, max: 40 }, minCornerRadiusM: 30, lengthM: 3000 }, { noise: 1 }, { noise: 0.6, widthM: { min: 8, max: 18 }, lengthM: 800, cornerCount: 6 }]) {
+        const t = generateTrack({ seed, ...r });
+        const h = t.centerline.halfWidthLeftM;
+        const n = h.length;
+        const k = Math.round(5 / t.centerline.spacingM);
+        for (let i = 0; i < n; i++) expect(Math.abs(2 * (h[(i + k) % n] - h[i])) / (k * t.centerline.spacingM)).toBeLessThanOrEqual(1 / 20);
+      }
+    }
+  });
+
   it('a brute-force O(n²) check with plain floating point agrees on small tracks', () => {
     for (let seed = 0; seed < 4; seed++) {
       const t = generateTrack({ seed, lengthM: 500, curvatureBudgetDeg: 900, cornerCount: 9, minCornerRadiusM: 8, widthM: { min: 6, max: 9 } });
