@@ -1,4 +1,4 @@
-// docs/exports.md keeps up with the code: every format with its media type, the CSV headers,
+// README.md keeps up with the code: every format with its media type, the CSV headers,
 // the glb node names, the SVG element ids and the CLI's format flags.
 
 import { readFile } from 'node:fs/promises';
@@ -6,11 +6,14 @@ import { describe, expect, it } from 'vitest';
 import { CSV_HEADERS, CSV_TABLES, EXPORT_FORMAT_NAMES, EXPORT_FORMATS, SVG_WIDTH_LIMITS_PX, TRACK_SCHEMA_FILE } from '../../src/export/index.js';
 import { generateHelp } from '../../src/cli/help.js';
 
-const DOC = new URL('../../docs/exports.md', import.meta.url);
+const DOC = new URL('../../README.md', import.meta.url);
 
-describe('docs/exports.md', () => {
+describe('README.md', () => {
   it('lists every format with its media type, in the code\'s order', async () => {
-    const doc = await readFile(DOC, 'utf8');
+    const all = await readFile(DOC, 'utf8');
+    // the Exports section only (other tables share the row shape)
+    const from = all.indexOf('\n## Exports');
+    const doc = all.slice(from, all.indexOf('\n## ', from + 1));
     const rows = [...doc.matchAll(/^\| `(\w+)` \| `([^`]+)` \|/gm)].map((m) => [m[1], m[2]]);
     expect(rows).toEqual(EXPORT_FORMAT_NAMES.map((f) => [f, EXPORT_FORMATS[f].mediaType]));
   });
