@@ -34,14 +34,37 @@ export function placeGates(curvature: Float64Array, spacingM: number, range: { m
   const most = Math.floor(lapM / range.min + 1e-9);
   if (fewest > most) return null;
   const count = Math.max(1, Math.min(most, Math.ceil(integralFor(1) - 1e-9)));
-  // integralFor falls from lapM / min (c → 0) to lapM / max (c → ∞)
+  // integralFor falls from lapM / min (c → 0) to lapM / max (c → ∞): bracket, then regula falsi
+  // with the Illinois step (superlinear; a few passes over the samples instead of sixty)
   let lo = 0, hi = 1;
-  while (integralFor(hi) > count && hi < 1e6) hi *= 2;
-  for (let it = 0; it < 60; it++) {
-    const mid = 0.5 * (lo + hi);
-    if (integralFor(mid) > count) lo = mid;
-    else hi = mid;
+  let fLo = integralFor(lo) - count, fHi = integralFor(hi) - count;
+  while (fHi > 0 && hi < 1e6) {
+    lo = hi;
+    fLo = fHi;
+    hi *= 2;
+    fHi = integralFor(hi) - count;
   }
+  let side = 0;
+  for (let it = 0; it < ROOT_MAX_ITER && fLo > 0 && fHi < 0; it++) {
+    const c = (lo * fHi - hi * fLo) / (fHi - fLo);
+    const f = integralFor(c) - count;
+    if (Math.abs(f) <= ROOT_TOL * count) {
+      hi = c;
+      break;
+    }
+    if (f > 0) {
+      lo = c;
+      fLo = f;
+      if (side === -1) fHi /= 2;
+      side = -1;
+    } else {
+      hi = c;
+      fHi = f;
+      if (side === 1) fLo /= 2;
+      side = 1;
+    }
+  }
+  if (fLo === 0) hi = lo; // the lower end solves it exactly (every gap at its minimum)
   const cumulative = new Float64Array(n + 1);
   const total = integralFor(hi, cumulative);
   const s = new Float64Array(count);
@@ -54,6 +77,11 @@ export function placeGates(curvature: Float64Array, spacingM: number, range: { m
   }
   return s;
 }
+
+/** Relative tolerance of the gate count's integral (far below what 1 mm rounding of s shows). */
+const ROOT_TOL = 1e-12;
+/** Root-finding passes at most (the Illinois step converges in ~10). */
+const ROOT_MAX_ITER = 100;
 
 /** Wanted gap between gates at curvature κ: clamp(c · GATE_TURN_RAD / |κ|, min, max), metres. */
 export function wantedGap(kappa: number, c: number, min: number, max: number): number {
