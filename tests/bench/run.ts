@@ -4,6 +4,8 @@
 // track; and variety, the median pairwise turning-function distance (Arkin et al. 1991) of 50
 // tracks drawn for the median real permanent circuit (4.6 km, 1570°, 15 corners, 40% minority).
 
+import { writeFileSync } from 'node:fs';
+import { cpus, loadavg } from 'node:os';
 import { generateTrack, MAX_ATTEMPTS } from '../../src/core/generate.js';
 import { isInfeasibleError } from '../../src/core/errors.js';
 import { turningDistanceBetween, turningSignature } from '../../src/core/metrics/turning-distance.js';
@@ -12,6 +14,8 @@ import type { Track } from '../../src/core/track.js';
 import { validateTrack } from '../../src/core/validate/index.js';
 
 const quick = process.argv.includes('--quick');
+// --write FILE: also write the figures as a Markdown page (docs/benchmarks.md)
+const writeTo = process.argv.includes('--write') ? process.argv[process.argv.indexOf('--write') + 1] : undefined;
 
 interface Stats {
   min: number;
@@ -105,3 +109,20 @@ const d: number[] = [];
 for (let i = 0; i < sigs.length; i++) for (let j = i + 1; j < sigs.length; j++) d.push(turningDistanceBetween(sigs[i], sigs[j]));
 d.sort((a, b) => a - b);
 say(`variety, 50 circuits (4.6 km, 1570°, 15 corners, 0.4): median pairwise turning distance ${d[d.length >> 1].toFixed(3)} (p10 ${d[Math.floor(0.1 * d.length)].toFixed(3)}, p90 ${d[Math.floor(0.9 * d.length)].toFixed(3)}); real circuits 1.20, target >= 1.0`);
+
+if (writeTo) {
+  const cpu = cpus();
+  const page = `# Generator benchmark
+
+Written by \`npm run bench -- --write docs/benchmarks.md\` (tests/bench/run.ts). Wall-clock times on
+one core of the machine below, after warm-up; compare figures only between runs on the same
+machine. Load average when the run started: ${loadavg()[0].toFixed(2)} (other work shared the machine).
+
+Machine: ${cpu.length} × ${cpu[0]?.model ?? 'unknown CPU'}, Node ${process.version}.
+
+\`\`\`
+${lines.join('\n')}
+\`\`\`
+`;
+  writeFileSync(writeTo, page);
+}
