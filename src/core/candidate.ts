@@ -4,6 +4,7 @@
  * gates, spawns → corners and metrics. The checker and the id are the caller's (generate.ts).
  */
 import { placeControlPoints } from './centerline/control-points.js';
+import { interpolateClosed } from './geom/interpolate.js';
 import { planLap, PLAN_STEP_M } from './centerline/plan.js';
 import type { Plan } from './centerline/plan-types.js';
 import { chooseStartS } from './centerline/start-line.js';
@@ -199,19 +200,8 @@ function shipTrack(
 // corners in lap order from the start line, measured on the shipped curvature
 function measureCorners(plan: Plan, trace: Trace, startS: number, traceS: Float64Array, splineS: Float64Array, curvature: Float64Array, tangents: Float64Array, spacing: number, L: number): Corner[] {
   const lapM = plan.lengthM;
-  const toSpline = (ts: number) => {
-    const rel = (ts - startS + lapM) % lapM;
-    let lo = 0, hi = traceS.length - 1;
-    while (lo < hi) {
-      const mid = (lo + hi + 1) >> 1;
-      if (traceS[mid] <= rel) lo = mid;
-      else hi = mid - 1;
-    }
-    const t1 = lo + 1 < traceS.length ? traceS[lo + 1] : lapM;
-    const s1 = lo + 1 < traceS.length ? splineS[lo + 1] : L;
-    const f = t1 > traceS[lo] ? (rel - traceS[lo]) / (t1 - traceS[lo]) : 0;
-    return splineS[lo] + f * (s1 - splineS[lo]);
-  };
+  // trace position → spline arc length, linear between control points (whose positions both know)
+  const toSpline = (ts: number) => interpolateClosed(traceS, lapM, splineS, L, (ts - startS + lapM) % lapM);
   const n = curvature.length;
   const raw = plan.corners.map((c, i) => {
     const endS = trace.cornerEnd[i] < trace.s.length ? trace.s[trace.cornerEnd[i]] : lapM;
