@@ -41,7 +41,14 @@ show "validate a track" -X POST "$BASE/v1/tracks/validate" -H "$JSON" --data @"$
 # the answers that say what to change
 show "400: every bad field with its path" -X POST "$BASE/v1/tracks" -H "$JSON" -d '{"lengthM": 50, "widthM": {"min": 12, "max": 8}, "laps": 3}'
 show "422: infeasible, with reason and hint" -X POST "$BASE/v1/tracks" -H "$JSON" --data @"$HERE/requests/one-way-too-much-turning.json"
-show "406: exports are not available yet" -X POST "$BASE/v1/tracks?format=svg" -H "$JSON" -d '{}'
+show "406: the Accept header allows no format" -X POST "$BASE/v1/tracks" -H "$JSON" -H 'Accept: text/html' -d '{}'
+
+# the same held-out track for a simulator (glb), for people (svg) and for a notebook (csv)
+curl -s -o "$OUT/heldout-0042.glb" -w '%{http_code} the held-out track as glb (3D scene)\n' "$BASE/v1/tracks/larkspur-heldout-0042?lengthM=3000&format=glb"
+show "the same track as a drawing with the road coloured by curvature" "$BASE/v1/tracks/larkspur-heldout-0042?lengthM=3000&format=svg&heat=true"
+show "its gates as CSV" "$BASE/v1/tracks/larkspur-heldout-0042?lengthM=3000&format=csv&table=gates"
+show "the track format's JSON Schema" "$BASE/v1/schema/track"
 
 show "the OpenAPI document (interactive documentation at $BASE/docs)" "$BASE/openapi.json"
+echo "preview page: $BASE/"
 echo "tracks saved in $OUT"

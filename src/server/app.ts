@@ -15,7 +15,9 @@ import { handleError, handleNotFound } from './error-handler.js';
 import { HttpError, unavailable } from './errors.js';
 import { TrackPool } from './pool/track-pool.js';
 import { healthRoutes } from './routes/health.js';
+import { paramsRoutes } from './routes/params.js';
 import { presetRoutes } from './routes/presets.js';
+import { schemaRoutes } from './routes/schema.js';
 import { trackRoutes } from './routes/tracks.js';
 import { validateRoutes } from './routes/validate.js';
 import { zodValidator } from './validation.js';
@@ -94,7 +96,7 @@ export const lapwrightService: FastifyPluginAsync<ResolvedAppOptions> = async (a
       info: {
         title: 'lapwright',
         version: state.version,
-        description: `Closed racing tracks for training driving agents in simulation: seeded, validated, reproducible (same seed, parameters and generatorVersion, same bytes). Errors answer { statusCode, code, error, message }, plus issues for 400 and 422, reason and hint for 422, and a Retry-After header on 503. Generated layouts are for simulation and games only.`,
+        description: `Closed racing tracks for training driving agents in simulation: seeded, validated, reproducible (same seed, parameters and generatorVersion, same bytes). Errors answer { statusCode, code, error, message }, plus issues for 400 and 422, reason and hint for 422, and a Retry-After header on 503. Tracks come as JSON (JSON Schema at GET /v1/schema/track) or exported as glb, svg or csv. Generated layouts are for simulation and games only.`,
       },
       servers: [{ url: 'http://127.0.0.1:8080', description: 'npm start with the default PORT and HOST' }],
       tags: [
@@ -110,6 +112,8 @@ export const lapwrightService: FastifyPluginAsync<ResolvedAppOptions> = async (a
   await app.register(trackRoutes);
   await app.register(validateRoutes);
   await app.register(presetRoutes);
+  await app.register(paramsRoutes);
+  await app.register(schemaRoutes);
 
   app.get('/openapi.json', { schema: { hide: true } }, async (_request, reply) => reply.type('application/json; charset=utf-8').send(app.swagger()));
   // the UI and its assets ship inside the package: /docs works with no network

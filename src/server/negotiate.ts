@@ -2,15 +2,11 @@
  * Which format a track request wants, from the `format` query parameter (first) or the Accept
  * header (RFC 9110 §12.5.1: media ranges with q weights), and conditional requests by ETag.
  */
-import type { TrackFormat } from './schemas.js';
+import { EXPORT_FORMATS } from '../export/index.js';
+import { TRACK_FORMATS, type TrackFormat } from './export-query.js';
 
-/** Media type of each track format. */
-export const FORMAT_MEDIA_TYPES: Readonly<Record<TrackFormat, string>> = {
-  json: 'application/json',
-  svg: 'image/svg+xml',
-  glb: 'model/gltf-binary',
-  csv: 'text/csv',
-};
+/** Media type of each track format, in the order negotiation prefers them on a tie. */
+export const FORMAT_MEDIA_TYPES: Readonly<Record<TrackFormat, string>> = Object.fromEntries(TRACK_FORMATS.map((f) => [f, EXPORT_FORMATS[f].mediaType])) as Record<TrackFormat, string>;
 
 /** The outcome: a format, or none that the Accept header allows. */
 export type Negotiated = { readonly format: TrackFormat } | { readonly format: null; readonly accept: string };
@@ -33,7 +29,7 @@ export function negotiateFormat(formatQuery: TrackFormat | undefined, accept: st
   const ranges = parseAccept(accept);
   let best: TrackFormat | null = null;
   let bestQ = 0;
-  for (const format of Object.keys(FORMAT_MEDIA_TYPES) as TrackFormat[]) {
+  for (const format of TRACK_FORMATS) {
     const q = qualityOf(FORMAT_MEDIA_TYPES[format], ranges);
     if (q > bestQ) {
       best = format;

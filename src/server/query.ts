@@ -6,9 +6,10 @@
  */
 import type { FieldIssue } from '../schema/issues.js';
 import { isPlainObject, readNumberText, readSeedText, setDotted, setOwn } from '../schema/dotted.js';
+import { EXPORT_QUERY_KEYS } from './export-query.js';
 
-/** Query keys that are not track parameters. */
-const RESERVED_KEYS = new Set(['format']);
+/** Query keys that are not track parameters: how to answer (format and export options). */
+const RESERVED_KEYS: ReadonlySet<string> = new Set(EXPORT_QUERY_KEYS);
 
 /** The body built from a path and query, and the problems that the schema cannot see. */
 export interface NestedQuery {

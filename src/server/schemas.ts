@@ -4,22 +4,16 @@
  */
 import { z } from 'zod';
 import { ISSUE_CODES, SEED_MAX, SEED_STRING_MAX_CHARS } from '../core/index.js';
-import { expectedError, objectError } from '../schema/messages.js';
 import { trackRequestSchema } from '../schema/params.js';
 import { trackSchema } from '../schema/track.js';
 import { HTTP_ERRORS, type HttpErrorCode } from './errors.js';
+import { exportQueryShape } from './export-query.js';
 
-/** Formats a track can be asked for; only json exists in this version. */
-export const TRACK_FORMATS = ['json', 'svg', 'glb', 'csv'] as const;
-export type TrackFormat = (typeof TRACK_FORMATS)[number];
+export { formatSchema, TRACK_FORMATS } from './export-query.js';
+export type { TrackFormat } from './export-query.js';
 
-const FORMAT_DOC = 'Format of the answer: json (the default), or an export (svg, glb, csv), which this version does not offer yet (406). Takes precedence over the Accept header.';
-
-/** `format` query parameter. */
-export const formatSchema = z.enum(TRACK_FORMATS, { error: expectedError(`one of ${TRACK_FORMATS.join(', ')}`) }).meta({ description: FORMAT_DOC });
-
-/** Query string of POST /v1/tracks. */
-export const postTrackQuerySchema = z.strictObject({ format: formatSchema.optional() }, { error: objectError('a query string', ['format']) });
+/** Query string of POST /v1/tracks: only how to answer (the parameters go in the body). */
+export const postTrackQuerySchema = z.strictObject(exportQueryShape);
 
 /** Path of GET /v1/tracks/{seed}. */
 export const seedPathSchema = z.strictObject({
@@ -35,7 +29,7 @@ export const seedPathSchema = z.strictObject({
  * (src/server/query.ts) and checks the result with trackRequestSchema, so the rules and the
  * messages are those of POST /v1/tracks.
  */
-export const getTrackQueryDocSchema = z.strictObject({ ...flattenedRequestShape(), format: formatSchema.optional() });
+export const getTrackQueryDocSchema = z.strictObject({ ...flattenedRequestShape(), ...exportQueryShape });
 
 /** One offending field of a malformed request (400). */
 export const fieldIssueSchema = z

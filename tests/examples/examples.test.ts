@@ -90,7 +90,11 @@ describe.skipIf(!hasCurl)('examples/curl.sh', () => {
       '200 validate a track',
       '400 400: every bad field with its path',
       '422 422: infeasible, with reason and hint',
-      '406 406: exports are not available yet',
+      '406 406: the Accept header allows no format',
+      '200 the held-out track as glb (3D scene)',
+      '200 the same track as a drawing with the road coloured by curvature',
+      '200 its gates as CSV',
+      "200 the track format's JSON Schema",
       `200 the OpenAPI document (interactive documentation at ${url}/docs)`,
     ]);
   }, 120_000);

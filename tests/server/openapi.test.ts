@@ -29,7 +29,17 @@ describe('OpenAPI document', () => {
         'GET /v1/tracks/{seed} 200,304,400,406,422,503',
         'POST /v1/tracks/validate 200,400,413,415,422,503',
         'GET /v1/presets 200',
+        'GET /v1/params 200',
+        'GET /v1/schema/track 200',
       ]);
+      // the preview page and its assets are not part of the API
+      expect(Object.keys(doc.paths).filter((p) => p === '/' || p.startsWith('/assets'))).toEqual([]);
+      // both track routes answer every format and point at the track's JSON Schema
+      for (const op of [doc.paths['/v1/tracks'].post, doc.paths['/v1/tracks/{seed}'].get] as unknown as { responses: Record<string, { content: Record<string, unknown> }>; externalDocs: unknown }[]) {
+        expect(Object.keys(op.responses['200'].content)).toEqual(['application/json', 'model/gltf-binary', 'image/svg+xml', 'text/csv']);
+        expect(op.externalDocs).toEqual({ description: 'JSON Schema of the track format (draft 2020-12)', url: '/v1/schema/track' });
+      }
+      expect(doc.paths['/v1/tracks'].post.parameters?.map((p) => `${p.in}:${p.name}`)).toEqual(['query:format', 'query:table', 'query:heat', 'query:widthPx', 'query:pretty']);
       const get = doc.paths['/v1/tracks/{seed}'].get;
       expect(get.parameters?.map((p) => `${p.in}:${p.name}`)).toEqual([
         'query:lengthM',
@@ -49,6 +59,10 @@ describe('OpenAPI document', () => {
         'query:car.lengthM',
         'query:car.widthM',
         'query:format',
+        'query:table',
+        'query:heat',
+        'query:widthPx',
+        'query:pretty',
         'path:seed',
       ]);
       expect(Object.keys(doc.components.schemas).sort()).toEqual(['Error', 'FieldIssue', 'Track', 'TrackInput', 'TrackIssue', 'TrackRequest', 'TrackRequestInput']);

@@ -3,9 +3,19 @@
  * thread boundary by structured clone, so it is plain data (no classes, no functions).
  */
 import type { Issue, InfeasibleReason, Seed, TrackRequest } from '../../core/index.js';
+import type { ExportFormat, ExportOptions } from '../../export/index.js';
 
-/** Work a worker can do: generate one track, or check one uploaded track. */
-export type TaskInput = { readonly kind: 'generate'; readonly request: TrackRequest } | { readonly kind: 'validate'; readonly track: unknown };
+/** How a generated track is to be answered: an export format and its options (checked by the server). */
+export interface ExportRequest {
+  readonly format: ExportFormat;
+  readonly options: ExportOptions;
+}
+
+/**
+ * Work a worker can do: generate one track (as JSON, or exported when `export` says so), or
+ * check one uploaded track.
+ */
+export type TaskInput = { readonly kind: 'generate'; readonly request: TrackRequest; readonly export?: ExportRequest } | { readonly kind: 'validate'; readonly track: unknown };
 
 /** The typed infeasibility error of the core, as plain data. */
 export interface InfeasibleData {
@@ -24,9 +34,24 @@ export interface InternalData {
   readonly stack?: string;
 }
 
-/** What a task yields. A generated track travels as UTF-8 JSON bytes (transferred, not copied). */
+/** A generated track, as the bytes of the format asked for (transferred, not copied). */
+export interface GeneratedData {
+  readonly ok: true;
+  readonly kind: 'generate';
+  readonly id: string;
+  readonly seed: Seed;
+  readonly format: ExportFormat;
+  /** The format's media type, e.g. model/gltf-binary. */
+  readonly mediaType: string;
+  /** A file name for the bytes, e.g. track-d68eba0e.glb. */
+  readonly fileName: string;
+  /** JSON, SVG and CSV as UTF-8 text; glb as binary glTF. */
+  readonly bytes: Uint8Array;
+}
+
+/** What a task yields. */
 export type TaskOutput =
-  | { readonly ok: true; readonly kind: 'generate'; readonly id: string; readonly seed: Seed; readonly json: Uint8Array }
+  | GeneratedData
   | { readonly ok: true; readonly kind: 'validate'; readonly valid: boolean; readonly issues: readonly Issue[] }
   | { readonly ok: false; readonly error: InfeasibleData | InternalData };
 

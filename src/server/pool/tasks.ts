@@ -1,26 +1,33 @@
 /**
  * The work a generation worker does, as a plain function (so tests can call it in-thread):
- * run the core, serialize the track to JSON bytes off the server thread, and turn the core's
- * typed errors into plain data.
+ * run the core, turn the track into the bytes of the format asked for (JSON, or an export) off
+ * the server thread, and turn the core's typed errors into plain data.
  */
 import { generateTrackJson, isInfeasibleError, validateTrack } from '../../core/index.js';
 import type { Track } from '../../core/index.js';
-import type { TaskInput, TaskOutput } from './protocol.js';
+import { EXPORT_FORMATS, exportFileName, exportTrack } from '../../export/index.js';
+import type { ExportRequest, TaskInput, TaskOutput } from './protocol.js';
 
 const ENCODER = new TextEncoder();
 
+/** The JSON the core makes, as it is. */
+const PLAIN_JSON: ExportRequest = { format: 'json', options: {} };
+
 /**
- * Runs one task; never throws.
- * @returns the output and the buffers to transfer with it (the track's JSON bytes)
+ * Runs one task; never rejects.
+ * @returns the output and the buffers to transfer with it (the answer's bytes)
  */
-export function runTask(input: TaskInput): { output: TaskOutput; transfer: ArrayBuffer[] } {
+export async function runTask(input: TaskInput): Promise<{ output: TaskOutput; transfer: ArrayBuffer[] }> {
   try {
     if (input.kind === 'generate') {
-      // the core hands back the JSON it made for the id: no second serialization
       const made = generateTrackJson(input.request);
       const track = made.track;
-      const json = ENCODER.encode(made.json);
-      return { output: { ok: true, kind: 'generate', id: track.id, seed: track.seed, json }, transfer: [json.buffer as ArrayBuffer] };
+      const { format, options } = input.export ?? PLAIN_JSON;
+      // the default JSON is the text the core made for the id: no second serialization
+      const data = format === 'json' && options.pretty !== true ? made.json : await exportTrack(track, format, options);
+      const bytes = ownBuffer(typeof data === 'string' ? ENCODER.encode(data) : data);
+      const output: TaskOutput = { ok: true, kind: 'generate', id: track.id, seed: track.seed, format, mediaType: EXPORT_FORMATS[format].mediaType, fileName: exportFileName(track, format, options), bytes };
+      return { output, transfer: [bytes.buffer as ArrayBuffer] };
     }
     // the server checked the shape with trackSchema; the checker takes it from here
     const result = validateTrack(input.track as Track);
@@ -33,4 +40,11 @@ export function runTask(input: TaskInput): { output: TaskOutput; transfer: Array
     const e = err instanceof Error ? err : new Error(String(err));
     return { output: { ok: false, error: { kind: 'internal', message: `${e.name}: ${e.message}`, stack: e.stack } }, transfer: [] };
   }
+}
+
+// bytes that own their whole ArrayBuffer, so transferring it moves nothing else (a view into a
+// shared or pooled buffer is copied first)
+function ownBuffer(bytes: Uint8Array): Uint8Array {
+  const whole = bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength && bytes.buffer instanceof ArrayBuffer;
+  return whole ? bytes : bytes.slice();
 }

@@ -9,8 +9,9 @@ import { runTask } from './tasks.js';
 if (parentPort === null) throw new Error('track-worker runs only as a worker thread (new Worker(...)), not as a script');
 const port = parentPort;
 
-port.on('message', (message: TaskMessage) => {
-  const { output, transfer } = runTask(message.input);
+// one task at a time: the pool sends the next only after this one's result
+port.on('message', async (message: TaskMessage) => {
+  const { output, transfer } = await runTask(message.input);
   const reply: WorkerMessage = { type: 'result', taskId: message.taskId, output };
   port.postMessage(reply, transfer);
 });

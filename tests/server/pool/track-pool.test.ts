@@ -18,7 +18,7 @@ const block = (ms: number) => ({ kind: 'generate', request: { seed: `block:${ms}
 
 function trackOf(output: TaskOutput): { id: string; seed: unknown } {
   if (!output.ok || output.kind !== 'generate') throw new Error(`expected a generated track, got ${JSON.stringify(output)}`);
-  return JSON.parse(new TextDecoder().decode(output.json)) as { id: string; seed: unknown };
+  return JSON.parse(new TextDecoder().decode(output.bytes)) as { id: string; seed: unknown };
 }
 
 describe('TrackPool', () => {
@@ -31,6 +31,15 @@ describe('TrackPool', () => {
     const track = trackOf(out);
     expect(out.ok && out.kind === 'generate' && out.id).toBe(track.id);
     expect(track.seed).toBe(7);
+  });
+
+  it('exports on the worker: a glb task comes back as binary glTF bytes with its media type', async () => {
+    const p = new TrackPool({ workers: 1, maxQueue: 4 });
+    pools.push(p);
+    const out = await p.run({ kind: 'generate', request: { seed: 7, lengthM: 600 }, export: { format: 'glb', options: {} } }, 30_000);
+    if (!out.ok || out.kind !== 'generate') throw new Error(JSON.stringify(out));
+    expect([out.format, out.mediaType]).toEqual(['glb', 'model/gltf-binary']);
+    expect(Buffer.from(out.bytes.subarray(0, 4)).toString('latin1')).toBe('glTF');
   });
 
   it('turns an infeasible request into plain data with reason and hint', async () => {

@@ -1,7 +1,9 @@
 import type { FastifyInstance } from 'fastify';
+import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { generateTrack, InfeasibleError, SEED_MAX } from '../../../src/core/index.js';
 import type { Track, TrackRequest } from '../../../src/core/index.js';
+import { CSV_HEADERS, exportTrack } from '../../../src/export/index.js';
 import { CACHE_FOREVER } from '../../../src/server/routes/tracks.js';
 import { errorSchema } from '../../../src/server/schemas.js';
 import { json, readyApp, TEST_WORKER_URL } from '../helpers.js';
@@ -10,6 +12,11 @@ import { json, readyApp, TEST_WORKER_URL } from '../helpers.js';
 function expectedBody(request: TrackRequest): { text: string; id: string } {
   const track = generateTrack(request);
   return { text: JSON.stringify(track), id: track.id };
+}
+
+// the JSON the service answers for a request
+async function textOf(request: TrackRequest): Promise<string> {
+  return (await app.inject({ method: 'POST', url: '/v1/tracks', payload: request })).body;
 }
 
 function infeasible(request: TrackRequest): InfeasibleError {
@@ -39,6 +46,7 @@ describe('POST /v1/tracks', () => {
     expect(res.headers.etag).toBe(`"${expected.id}"`);
     expect(res.headers.vary).toBe('Accept');
     expect(res.headers['cache-control']).toBeUndefined();
+    expect(res.headers['content-disposition']).toBe(`inline; filename="track-${expected.id.slice(0, 8)}.json"`);
     expect(res.body).toBe(expected.text);
   });
 
@@ -85,22 +93,113 @@ describe('POST /v1/tracks', () => {
     }
   });
 
-  it('406 for the export formats, by format query or Accept header', async () => {
+  it('exports by format query: glb, svg and csv bytes equal the exporters\' output, with media type, ETag per format and a file name', async () => {
+    const request = { seed: 7, lengthM: 900 };
+    const track = generateTrack(request);
+    const stem = `track-${track.id.slice(0, 8)}`;
     const cases = [
-      ['/v1/tracks?format=svg', undefined, 'the svg export (format=svg) is not available yet: this version answers application/json only (leave out format, or send Accept: application/json)'],
-      ['/v1/tracks?format=glb', undefined, 'the glb export (format=glb) is not available yet: this version answers application/json only (leave out format, or send Accept: application/json)'],
-      ['/v1/tracks?format=csv', 'application/json', 'the csv export (format=csv) is not available yet: this version answers application/json only (leave out format, or send Accept: application/json)'],
-      ['/v1/tracks', 'image/svg+xml', 'the svg export (Accept: image/svg+xml) is not available yet: this version answers application/json only (leave out format, or send Accept: application/json)'],
-      ['/v1/tracks', 'model/gltf-binary, application/json;q=0.5', 'the glb export (Accept: model/gltf-binary) is not available yet: this version answers application/json only (leave out format, or send Accept: application/json)'],
-      ['/v1/tracks', 'text/*', 'the csv export (Accept: text/csv) is not available yet: this version answers application/json only (leave out format, or send Accept: application/json)'],
-      ['/v1/tracks', 'text/html', 'the Accept header "text/html" allows none of application/json, image/svg+xml, model/gltf-binary, text/csv; this version answers application/json'],
-      ['/v1/tracks', 'application/json;q=0', 'the Accept header "application/json;q=0" allows none of application/json, image/svg+xml, model/gltf-binary, text/csv; this version answers application/json'],
+      ['glb', {}, 'model/gltf-binary', `"${track.id}.glb"`, `attachment; filename="${stem}.glb"`],
+      ['svg', {}, 'image/svg+xml; charset=utf-8', `"${track.id}.svg"`, `inline; filename="${stem}.svg"`],
+      ['csv', {}, 'text/csv; charset=utf-8', `"${track.id}.csv"`, `attachment; filename="${stem}-centerline.csv"`],
+      ['json', { pretty: true }, 'application/json; charset=utf-8', `"${track.id}.pretty.json"`, `inline; filename="${stem}.json"`],
     ] as const;
-    for (const [url, accept, message] of cases) {
-      const res = await app.inject({ method: 'POST', url, payload: { seed: 3 }, headers: accept === undefined ? {} : { accept } });
-      expect(res.statusCode).toBe(406);
-      expect(json(res)).toEqual({ statusCode: 406, code: 'ERR_NOT_ACCEPTABLE', error: 'Not Acceptable', message });
+    for (const [format, options, type, etag, disposition] of cases) {
+      const query = new URLSearchParams({ format, ...Object.fromEntries(Object.entries(options).map(([k, v]) => [k, String(v)])) });
+      const res = await app.inject({ method: 'POST', url: `/v1/tracks?${query}`, payload: request });
+      expect([format, res.statusCode, res.headers['content-type'], res.headers.etag, res.headers['content-disposition'], res.headers.vary]).toEqual([format, 200, type, etag, disposition, 'Accept']);
+      const expected = await exportTrack(track, format, options);
+      expect(Buffer.compare(res.rawPayload, Buffer.from(expected))).toBe(0);
     }
+  });
+
+  it('glb starts with the glTF magic, svg is well-formed XML of the track, csv has its header row', async () => {
+    const glb = await app.inject({ method: 'POST', url: '/v1/tracks?format=glb', payload: { seed: 'bytes', lengthM: 600 } });
+    expect(glb.rawPayload.subarray(0, 4).toString('latin1')).toBe('glTF');
+    expect(glb.rawPayload.readUInt32LE(4)).toBe(2);
+    expect(glb.rawPayload.readUInt32LE(8)).toBe(glb.rawPayload.length);
+    const svg = await app.inject({ method: 'POST', url: '/v1/tracks?format=svg&heat=true&widthPx=600', payload: { seed: 'bytes', lengthM: 600 } });
+    expect(XMLValidator.validate(svg.body)).toBe(true);
+    const root = new XMLParser({ ignoreAttributes: false }).parse(svg.body).svg;
+    expect([root['@_width'], root['@_data-track-id']]).toEqual(['600', (JSON.parse(await textOf({ seed: 'bytes', lengthM: 600 })) as Track).id]);
+    const csv = await app.inject({ method: 'POST', url: '/v1/tracks?format=csv&table=gates', payload: { seed: 'bytes', lengthM: 600 } });
+    const lines = csv.body.trimEnd().split('\n');
+    expect(lines[0]).toBe(CSV_HEADERS.gates.join(','));
+    expect(lines.length - 1).toBe((JSON.parse(await textOf({ seed: 'bytes', lengthM: 600 })) as Track).gates.length);
+  });
+
+  it('exports by Accept header (most preferred format wins; JSON on a tie)', async () => {
+    const cases = [
+      ['model/gltf-binary', 'model/gltf-binary'],
+      ['image/svg+xml', 'image/svg+xml; charset=utf-8'],
+      ['text/*', 'text/csv; charset=utf-8'],
+      ['model/gltf-binary, application/json;q=0.5', 'model/gltf-binary'],
+      ['text/csv;q=0.5, application/*', 'application/json; charset=utf-8'],
+      ['image/svg+xml, application/json', 'application/json; charset=utf-8'],
+    ] as const;
+    for (const [accept, type] of cases) {
+      const res = await app.inject({ method: 'POST', url: '/v1/tracks', payload: { seed: 3, lengthM: 600 }, headers: { accept } });
+      expect([accept, res.statusCode, res.headers['content-type']]).toEqual([accept, 200, type]);
+    }
+    // the format query wins over Accept
+    const svg = await app.inject({ method: 'POST', url: '/v1/tracks?format=svg', payload: { seed: 3, lengthM: 600 }, headers: { accept: 'application/json' } });
+    expect(svg.headers['content-type']).toBe('image/svg+xml; charset=utf-8');
+  });
+
+  it('If-None-Match works per format: the glb tag matches the glb only', async () => {
+    const { id } = expectedBody({ seed: 'etag-format', lengthM: 600 });
+    const payload = { seed: 'etag-format', lengthM: 600 };
+    const glb304 = await app.inject({ method: 'POST', url: '/v1/tracks?format=glb', payload, headers: { 'if-none-match': `"${id}.glb"` } });
+    expect([glb304.statusCode, glb304.body, glb304.headers.etag]).toEqual([304, '', `"${id}.glb"`]);
+    const jsonTagOnGlb = await app.inject({ method: 'POST', url: '/v1/tracks?format=glb', payload, headers: { 'if-none-match': `"${id}"` } });
+    expect(jsonTagOnGlb.statusCode).toBe(200);
+    const glbTagOnJson = await app.inject({ method: 'POST', url: '/v1/tracks', payload, headers: { 'if-none-match': `"${id}.glb"` } });
+    expect(glbTagOnJson.statusCode).toBe(200);
+    const heat = await app.inject({ method: 'POST', url: '/v1/tracks?format=svg&heat=true', payload, headers: { 'if-none-match': `"${id}.svg"` } });
+    expect([heat.statusCode, heat.headers.etag]).toEqual([200, `"${id}.heat.svg"`]);
+  });
+
+  it('406 when the Accept header allows none of the formats', async () => {
+    const message = (accept: string) =>
+      `the Accept header ${JSON.stringify(accept)} allows none of application/json, image/svg+xml, model/gltf-binary, text/csv; send one of them, or name the format in the query (format=json|svg|glb|csv)`;
+    for (const accept of ['text/html', 'application/json;q=0, image/*;q=0, model/*;q=0, text/*;q=0']) {
+      const res = await app.inject({ method: 'POST', url: '/v1/tracks', payload: { seed: 3 }, headers: { accept } });
+      expect([res.statusCode, json(res)]).toEqual([406, { statusCode: 406, code: 'ERR_NOT_ACCEPTABLE', error: 'Not Acceptable', message: message(accept) }]);
+    }
+  });
+
+  it('400 for an option of another format than the one answered, or a bad option value', async () => {
+    const wrong = await app.inject({ method: 'POST', url: '/v1/tracks?format=svg&table=gates&pretty=true', payload: { seed: 3 } });
+    expect([wrong.statusCode, json(wrong)]).toEqual([
+      400,
+      {
+        statusCode: 400,
+        code: 'ERR_INVALID_PARAMS',
+        error: 'Bad Request',
+        message: 'invalid track parameters: 2 issues, listed with their paths in issues',
+        issues: [
+          { path: 'table', message: 'table is an option of the csv export; this answer is svg (add format=csv)' },
+          { path: 'pretty', message: 'pretty is an option of the json export; this answer is svg (add format=json)' },
+        ],
+      },
+    ]);
+    // an option with the format chosen by Accept counts too
+    const byAccept = await app.inject({ method: 'POST', url: '/v1/tracks?heat=true', payload: { seed: 3 }, headers: { accept: 'text/csv' } });
+    expect([byAccept.statusCode, (json(byAccept) as { issues: unknown }).issues]).toEqual([400, [{ path: 'heat', message: 'heat is an option of the svg export; this answer is csv (add format=svg)' }]]);
+    const values = await app.inject({ method: 'POST', url: '/v1/tracks?format=svg&heat=yes&widthPx=100&table=all', payload: { seed: 3 } });
+    expect([values.statusCode, json(values)]).toEqual([
+      400,
+      {
+        statusCode: 400,
+        code: 'ERR_INVALID_PARAMS',
+        error: 'Bad Request',
+        message: 'invalid track parameters: 3 issues, listed with their paths in issues',
+        issues: [
+          { path: 'table', message: 'expected one of centerline, gates, got "all"' },
+          { path: 'heat', message: 'expected true or false, got "yes"' },
+          { path: 'widthPx', message: 'expected an integer from 200 to 4000 px, got 100' },
+        ],
+      },
+    ]);
   });
 
   it('400 ERR_INVALID_PARAMS names every offending field with its path', async () => {
@@ -165,7 +264,7 @@ describe('POST /v1/tracks', () => {
     const query = await app.inject({ method: 'POST', url: '/v1/tracks?lengthM=900', payload: {} });
     expect([query.statusCode, json(query)]).toEqual([
       400,
-      { statusCode: 400, code: 'ERR_INVALID_PARAMS', error: 'Bad Request', message: 'invalid track parameters: 1 issue, listed with its path in issues', issues: [{ path: 'lengthM', message: 'unknown field "lengthM"; allowed fields: format' }] },
+      { statusCode: 400, code: 'ERR_INVALID_PARAMS', error: 'Bad Request', message: 'invalid track parameters: 1 issue, listed with its path in issues', issues: [{ path: 'lengthM', message: 'unknown field "lengthM"; allowed fields: format, table, heat, widthPx, pretty' }] },
     ]);
   });
 
@@ -319,13 +418,42 @@ describe('GET /v1/tracks/{seed}', () => {
     `);
   });
 
-  it('406 for an export format, 422 for an infeasible request', async () => {
-    const svg = await app.inject({ method: 'GET', url: '/v1/tracks/1?format=svg' });
-    expect([svg.statusCode, (json(svg) as { code: string }).code]).toEqual([406, 'ERR_NOT_ACCEPTABLE']);
+  it('exports by format query, cacheable forever, with the same bytes as POST', async () => {
+    const request = { seed: 42, lengthM: 800 };
+    const track = generateTrack(request);
+    const res = await app.inject({ method: 'GET', url: '/v1/tracks/42?lengthM=800&format=csv&table=gates' });
+    expect([res.statusCode, res.headers['content-type'], res.headers.etag, res.headers['cache-control'], res.headers['content-disposition']]).toEqual([
+      200,
+      'text/csv; charset=utf-8',
+      `"${track.id}.gates.csv"`,
+      CACHE_FOREVER,
+      `attachment; filename="track-${track.id.slice(0, 8)}-gates.csv"`,
+    ]);
+    expect(res.body).toBe(await exportTrack(track, 'csv', { table: 'gates' }));
+    const glb = await app.inject({ method: 'GET', url: '/v1/tracks/42?lengthM=800', headers: { accept: 'model/gltf-binary' } });
+    const posted = await app.inject({ method: 'POST', url: '/v1/tracks?format=glb', payload: request });
+    expect(glb.rawPayload.subarray(0, 4).toString('latin1')).toBe('glTF');
+    expect(Buffer.compare(glb.rawPayload, posted.rawPayload)).toBe(0);
+    const again = await app.inject({ method: 'GET', url: '/v1/tracks/42?lengthM=800&format=glb', headers: { 'if-none-match': `"${track.id}.glb"` } });
+    expect([again.statusCode, again.headers['cache-control']]).toEqual([304, CACHE_FOREVER]);
+  });
+
+  it('400 for export options of another format; 422 for an infeasible request, whatever the format', async () => {
+    const wrong = await app.inject({ method: 'GET', url: '/v1/tracks/1?widthPx=600' });
+    expect([wrong.statusCode, json(wrong)]).toEqual([
+      400,
+      { statusCode: 400, code: 'ERR_INVALID_PARAMS', error: 'Bad Request', message: 'invalid track parameters: 1 issue, listed with its path in issues', issues: [{ path: 'widthPx', message: 'widthPx is an option of the svg export; this answer is json (add format=svg)' }] },
+    ]);
     const err = infeasible({ seed: 1, turnBalance: 1, curvatureBudgetDeg: 900 });
-    const res = await app.inject({ method: 'GET', url: '/v1/tracks/1?turnBalance=1&curvatureBudgetDeg=900' });
-    expect([res.statusCode, json(res)]).toEqual([422, { statusCode: 422, code: 'ERR_INFEASIBLE', error: 'Unprocessable Entity', message: err.message, reason: 'turning_vs_balance', hint: err.hint, issues: [], attempts: 0 }]);
-    expect(res.headers['cache-control']).toBeUndefined();
+    for (const format of ['json', 'glb', 'svg']) {
+      const res = await app.inject({ method: 'GET', url: `/v1/tracks/1?turnBalance=1&curvatureBudgetDeg=900&format=${format}` });
+      expect([res.statusCode, res.headers['content-type'], json(res)]).toEqual([
+        422,
+        'application/json; charset=utf-8',
+        { statusCode: 422, code: 'ERR_INFEASIBLE', error: 'Unprocessable Entity', message: err.message, reason: 'turning_vs_balance', hint: err.hint, issues: [], attempts: 0 },
+      ]);
+      expect(res.headers['cache-control']).toBeUndefined();
+    }
   });
 });
 

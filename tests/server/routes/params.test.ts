@@ -1,0 +1,85 @@
+import type { FastifyInstance } from 'fastify';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { DEFAULTS, LIMITS } from '../../../src/core/index.js';
+import { EXPORT_FORMAT_NAMES, SVG_WIDTH_LIMITS_PX } from '../../../src/export/index.js';
+import { trackRequestSchema } from '../../../src/schema/params.js';
+import { buildApp } from '../../../src/server/app.js';
+import { describeParams, paramsDocSchema, type ParamDoc } from '../../../src/server/params-doc.js';
+import { json } from '../helpers.js';
+
+describe('GET /v1/params', () => {
+  let app: FastifyInstance;
+  beforeAll(async () => {
+    app = await buildApp({ startPool: false });
+  });
+  afterAll(async () => {
+    await app.close();
+  });
+
+  it('answers the parameter description, in its documented shape', async () => {
+    const res = await app.inject({ method: 'GET', url: '/v1/params' });
+    expect([res.statusCode, res.headers['cache-control']]).toEqual([200, 'public, max-age=300']);
+    expect(json(res)).toEqual(JSON.parse(JSON.stringify(describeParams())));
+    expect(paramsDocSchema.strict().safeParse(json(res)).success).toBe(true);
+  });
+});
+
+describe('describeParams', () => {
+  const doc = describeParams();
+  const byName = new Map<string, ParamDoc>(doc.parameters.map((p) => [p.name, p]));
+
+  it('lists every request parameter but the seed, nested ones dotted, in the schema\'s order', () => {
+    expect(doc.parameters.map((p) => p.name)).toEqual([
+      'lengthM',
+      'widthM.min',
+      'widthM.max',
+      'curvatureBudgetDeg',
+      'turnBalance',
+      'cornerCount',
+      'minCornerRadiusM',
+      'noise',
+      'gateSpacingM.min',
+      'gateSpacingM.max',
+      'spawnSlots',
+      'wall.heightM',
+      'wall.thicknessM',
+      'clearanceM',
+      'car.lengthM',
+      'car.widthM',
+    ]);
+  });
+
+  it('ranges and defaults are the core\'s LIMITS and DEFAULTS', () => {
+    expect(byName.get('lengthM')).toEqual({ name: 'lengthM', type: 'number', unit: 'm', min: LIMITS.lengthM.min, max: LIMITS.lengthM.max, default: DEFAULTS.lengthM, defaultText: String(DEFAULTS.lengthM), meaning: 'Centerline length of one lap.' });
+    expect(byName.get('widthM.max')).toMatchObject({ unit: 'm', min: LIMITS.widthM.min, max: LIMITS.widthM.max, default: DEFAULTS.widthM.max });
+    expect(byName.get('curvatureBudgetDeg')).toMatchObject({ unit: 'deg', min: LIMITS.curvatureBudgetDeg.min, max: LIMITS.curvatureBudgetDeg.max, default: DEFAULTS.curvatureBudgetDeg });
+    expect(byName.get('turnBalance')).toMatchObject({ unit: null, type: 'number', default: DEFAULTS.turnBalance });
+    expect(byName.get('spawnSlots')).toMatchObject({ unit: null, type: 'integer', min: LIMITS.spawnSlots.min, max: LIMITS.spawnSlots.max });
+    expect(byName.get('wall.thicknessM')).toMatchObject({ unit: 'm', default: DEFAULTS.wall.thicknessM });
+    expect(byName.get('car.widthM')).toMatchObject({ unit: 'm', min: LIMITS.carWidthM.min, default: DEFAULTS.car.widthM });
+    // cornerCount is derived when left out
+    expect(byName.get('cornerCount')).toMatchObject({ type: 'integer', default: null, defaultText: 'derived from lengthM and curvatureBudgetDeg' });
+  });
+
+  it('every range is one the request schema accepts at both ends and refuses just outside', () => {
+    for (const p of doc.parameters) {
+      const request = (value: number) => {
+        const [head, sub] = p.name.split('.');
+        return sub === undefined ? { [head]: value } : { [head]: { [sub]: value } };
+      };
+      expect(trackRequestSchema.safeParse(request(p.min)).success, `${p.name} = ${p.min}`).toBe(true);
+      expect(trackRequestSchema.safeParse(request(p.max)).success, `${p.name} = ${p.max}`).toBe(true);
+      expect(trackRequestSchema.safeParse(request(p.max + 1)).success, `${p.name} = ${p.max + 1}`).toBe(false);
+      if (p.default !== null) expect(p.default >= p.min && p.default <= p.max).toBe(true);
+      expect(p.meaning).not.toMatch(/Unit:|Allowed:|Default:/);
+    }
+  });
+
+  it('the seed, the formats and the export options', () => {
+    expect(doc.seed).toMatchObject({ integerMax: 4294967295, stringMaxChars: 64 });
+    expect(doc.formats.map((f) => f.name)).toEqual(EXPORT_FORMAT_NAMES);
+    expect(doc.exportOptions.map((o) => `${o.format}:${o.name}:${o.type}`)).toEqual(['csv:table:string', 'svg:heat:boolean', 'svg:widthPx:integer', 'json:pretty:boolean']);
+    expect(doc.exportOptions.find((o) => o.name === 'widthPx')).toMatchObject(SVG_WIDTH_LIMITS_PX);
+    expect(doc.exportOptions.find((o) => o.name === 'table')?.values).toEqual(['centerline', 'gates']);
+  });
+});
