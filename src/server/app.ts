@@ -20,6 +20,7 @@ import { presetRoutes } from './routes/presets.js';
 import { schemaRoutes } from './routes/schema.js';
 import { trackRoutes } from './routes/tracks.js';
 import { validateRoutes } from './routes/validate.js';
+import { webRoutes } from './routes/web.js';
 import { zodValidator } from './validation.js';
 
 export type { AppOptions } from './config.js';
@@ -96,7 +97,7 @@ export const lapwrightService: FastifyPluginAsync<ResolvedAppOptions> = async (a
       info: {
         title: 'lapwright',
         version: state.version,
-        description: `Closed racing tracks for training driving agents in simulation: seeded, validated, reproducible (same seed, parameters and generatorVersion, same bytes). Errors answer { statusCode, code, error, message }, plus issues for 400 and 422, reason and hint for 422, and a Retry-After header on 503. Tracks come as JSON (JSON Schema at GET /v1/schema/track) or exported as glb, svg or csv. Generated layouts are for simulation and games only.`,
+        description: `Closed racing tracks for training driving agents in simulation: seeded, validated, reproducible (same seed, parameters and generatorVersion, same bytes). Errors answer { statusCode, code, error, message }, plus issues for 400 and 422, reason and hint for 422, and a Retry-After header on 503. Tracks come as JSON (JSON Schema at GET /v1/schema/track) or exported as glb, svg or csv. A preview page for people, outside this document, is at GET /. Generated layouts are for simulation and games only.`,
       },
       servers: [{ url: 'http://127.0.0.1:8080', description: 'npm start with the default PORT and HOST' }],
       tags: [
@@ -118,6 +119,8 @@ export const lapwrightService: FastifyPluginAsync<ResolvedAppOptions> = async (a
   app.get('/openapi.json', { schema: { hide: true } }, async (_request, reply) => reply.type('application/json; charset=utf-8').send(app.swagger()));
   // the UI and its assets ship inside the package: /docs works with no network
   await app.register(fastifySwaggerUi, { routePrefix: DOCS_PREFIX, uiConfig: { url: '/openapi.json', deepLinking: true } });
+  // the preview page (GET /) and its assets, from src/web
+  await app.register(webRoutes);
 };
 
 // JSON only, parsed safely (no __proto__ or constructor.prototype keys); text/plain is refused

@@ -140,7 +140,7 @@ export async function replayDockerfile(options: ReplayOptions): Promise<ReplayRe
   }
 }
 
-// start CMD on a free loopback port, pass HEALTHCHECK and GET /healthz, then SIGTERM
+// start CMD on a free loopback port, pass HEALTHCHECK, GET /healthz and the preview page, then SIGTERM
 async function startAndStop(stage: Stage, log: (line: string) => void): Promise<{ healthz: unknown; exitCode: number | null }> {
   const port = await freePort();
   // HOST=0.0.0.0 in the image; here only loopback is ever used
@@ -166,6 +166,7 @@ async function startAndStop(stage: Stage, log: (line: string) => void): Promise<
     const healthz: unknown = await res.json();
     if (res.status !== 200) throw new Error(`GET /healthz answered ${res.status}`);
     log(`GET /healthz: ${res.status} ${JSON.stringify(healthz)}`);
+    await checkPreviewPage(`http://127.0.0.1:${port}`, log);
     child.kill('SIGTERM');
     let timer: NodeJS.Timeout | undefined;
     const timeout = new Promise<'timeout'>((resolve) => (timer = setTimeout(() => resolve('timeout'), STOP_TIMEOUT_MS)));
@@ -177,6 +178,21 @@ async function startAndStop(stage: Stage, log: (line: string) => void): Promise<
   } finally {
     if (child.exitCode === null && child.signalCode === null) child.kill('SIGKILL');
   }
+}
+
+// the preview page and every asset it links to are in the image (npm run build copies src/web)
+async function checkPreviewPage(base: string, log: (line: string) => void): Promise<void> {
+  const page = await fetch(`${base}/`);
+  const html = await page.text();
+  if (page.status !== 200 || !(page.headers.get('content-type') ?? '').startsWith('text/html')) throw new Error(`GET / answered ${page.status} ${page.headers.get('content-type')}`);
+  const assets = [...html.matchAll(/(?:src|href)="(\/assets\/[^"]+)"/g)].map((m) => m[1]);
+  if (assets.length === 0) throw new Error('GET / links to no asset under /assets/');
+  for (const asset of assets) {
+    const res = await fetch(`${base}${asset}`);
+    await res.arrayBuffer();
+    if (res.status !== 200) throw new Error(`GET ${asset} answered ${res.status}`);
+  }
+  log(`GET / and its assets (${assets.join(', ')}): 200`);
 }
 
 async function copyStep(args: string, stage: Stage, stages: readonly Stage[], context: string, where: string): Promise<void> {

@@ -20,7 +20,7 @@ describe('Dockerfile', () => {
     ]);
   });
 
-  it('replayed in a clean copy: npm ci, build, prune, then the image starts as a non-root user, passes its HEALTHCHECK and stops on SIGTERM with 0', { timeout: 300_000 }, async () => {
+  it('replayed in a clean copy: npm ci, build, prune, then the image starts as a non-root user, passes its HEALTHCHECK, serves the preview page and stops on SIGTERM with 0', { timeout: 300_000 }, async () => {
     const lines: string[] = [];
     const report = await replayDockerfile({ contextDir: ROOT, log: (line) => lines.push(line) });
     expect(report, lines.join('\n')).toEqual({
@@ -34,5 +34,6 @@ describe('Dockerfile', () => {
     expect(lines).toContain('RUN npm ci --ignore-scripts --no-audit --no-fund');
     expect(lines).toContain('RUN npm prune --omit=dev --no-audit --no-fund');
     expect(lines).toContain('HEALTHCHECK passed');
+    expect(lines).toContain('GET / and its assets (/assets/style.css, /assets/app.js): 200');
   });
 });
