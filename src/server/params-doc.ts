@@ -11,21 +11,30 @@ import { EXPORT_FORMAT_NAMES, EXPORT_FORMATS } from '../export/index.js';
 import { trackRequestSchema } from '../schema/params.js';
 import { exportQueryShape, OPTION_FORMATS } from './export-query.js';
 
-/** Units a parameter may carry, read from its name's suffix (`lengthM`, `curvatureBudgetDeg`). */
-export const PARAM_UNITS = { M: 'm', Deg: 'deg' } as const;
+/**
+ * Units a parameter may carry, read from its name's suffix (`lengthM`, `curvatureBudgetDeg`,
+ * `topSpeedMps`), longest suffix first.
+ */
+export const PARAM_UNITS = { Mps2: 'm/s²', Mps: 'm/s', Deg: 'deg', M: 'm' } as const;
 export type ParamUnit = (typeof PARAM_UNITS)[keyof typeof PARAM_UNITS];
 
-/** One numeric request parameter. */
+/** How a parameter is written: a number, a whole number, one of a few words, or other text. */
+export type ParamType = 'number' | 'integer' | 'choice' | 'text';
+
+/** One request parameter. */
 export interface ParamDoc {
   /** Dotted name, as the query string of GET /v1/tracks/{seed} writes it (`widthM.min`). */
   readonly name: string;
-  readonly type: 'number' | 'integer';
-  /** 'm', 'deg', or null for plain numbers (shares, counts). */
+  readonly type: ParamType;
+  /** 'm', 'deg', 'm/s', 'm/s²', or null for plain numbers (shares, counts) and words. */
   readonly unit: ParamUnit | null;
-  readonly min: number;
-  readonly max: number;
+  /** Smallest and largest allowed value (number and integer parameters). */
+  readonly min?: number;
+  readonly max?: number;
+  /** The allowed words (choice parameters). */
+  readonly values?: readonly string[];
   /** The value used when the parameter is left out; null when it is derived from others. */
-  readonly default: number | null;
+  readonly default: number | string | null;
   /** The default in words (`1500`, `derived from lengthM and curvatureBudgetDeg`). */
   readonly defaultText: string;
   /** What it does, one sentence. */
@@ -65,10 +74,11 @@ interface JsonSchemaNode {
 
 /**
  * Describes every request parameter, in the schema's order, nested ones flattened.
+ * @param schema the request schema (tests pass others)
  * @example describeParams().parameters.find((p) => p.name === 'lengthM')?.unit // 'm'
  */
-export function describeParams(): ParamsDoc {
-  const root = resolveRoot(z.toJSONSchema(trackRequestSchema, { io: 'input' }) as JsonSchemaNode);
+export function describeParams(schema: z.ZodType = trackRequestSchema): ParamsDoc {
+  const root = resolveRoot(z.toJSONSchema(schema, { io: 'input' }) as JsonSchemaNode);
   const parameters: ParamDoc[] = [];
   for (const [key, node] of Object.entries(root.properties ?? {})) {
     if (key === 'seed') continue;
@@ -106,11 +116,12 @@ export const paramsDocSchema = z.object({
   parameters: z.array(
     z.object({
       name: z.string().meta({ description: 'Dotted name, as in the query string of GET /v1/tracks/{seed} (widthM.min).' }),
-      type: z.enum(['number', 'integer']),
-      unit: z.enum([PARAM_UNITS.M, PARAM_UNITS.Deg]).nullable().meta({ description: 'm (metres), deg (degrees), or null for shares and counts.' }),
-      min: z.number(),
-      max: z.number(),
-      default: z.number().nullable().meta({ description: 'Value used when left out; null when derived from other parameters.' }),
+      type: z.enum(['number', 'integer', 'choice', 'text']).meta({ description: 'number, integer (whole number), choice (one of values) or text.' }),
+      unit: z.enum(Object.values(PARAM_UNITS) as [ParamUnit, ...ParamUnit[]]).nullable().meta({ description: 'm (metres), deg (degrees), m/s, m/s², or null for shares, counts and words.' }),
+      min: z.number().optional().meta({ description: 'Smallest allowed value (number and integer).' }),
+      max: z.number().optional().meta({ description: 'Largest allowed value (number and integer).' }),
+      values: z.array(z.string()).optional().meta({ description: 'The allowed words (choice).' }),
+      default: z.union([z.number(), z.string()]).nullable().meta({ description: 'Value used when left out; null when derived from other parameters.' }),
       defaultText: z.string().meta({ description: 'The default in words.' }),
       meaning: z.string(),
     }),
@@ -131,19 +142,19 @@ export const paramsDocSchema = z.object({
 
 function leafDoc(name: string, unit: ParamUnit | null, node: JsonSchemaNode, inherited: unknown): ParamDoc {
   const description = node.description ?? '';
-  const dflt = typeof node.default === 'number' ? node.default : typeof inherited === 'number' ? inherited : null;
+  const own = isScalar(node.default) ? node.default : isScalar(inherited) ? inherited : null;
   const words = /Default: (.+?)\.?$/.exec(description)?.[1];
-  if (node.minimum === undefined || node.maximum === undefined) throw new Error(`request parameter ${name} has no range in its schema`);
-  return {
-    name,
-    type: node.type === 'integer' ? 'integer' : 'number',
-    unit,
-    min: node.minimum,
-    max: node.maximum,
-    default: dflt,
-    defaultText: dflt !== null ? String(dflt) : (words ?? 'derived'),
-    meaning: description.split(' Unit:')[0],
-  };
+  const base = { name, default: own, defaultText: own !== null ? String(own) : (words ?? 'derived'), meaning: description.split(' Unit:')[0] };
+  if (node.enum !== undefined) return { ...base, type: 'choice', unit: null, values: node.enum };
+  if ((node.type === 'number' || node.type === 'integer') && node.minimum !== undefined && node.maximum !== undefined) {
+    return { ...base, type: node.type, unit, min: node.minimum, max: node.maximum };
+  }
+  // anything else is written as text and checked by the service
+  return { ...base, type: 'text', unit };
+}
+
+function isScalar(value: unknown): value is number | string {
+  return typeof value === 'number' || typeof value === 'string';
 }
 
 // the unit a name's suffix says: lengthM → m, curvatureBudgetDeg → deg; min, max, noise → none

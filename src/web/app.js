@@ -94,23 +94,35 @@ function buildField(p) {
   const id = fieldId(p.name);
   const unit = p.unit ? UNIT_TEXT[p.unit] ?? p.unit : '';
   const withUnit = (value) => (unit === '' ? String(value) : unit === '°' ? `${value}°` : `${value} ${unit}`);
-  const range = `${p.min}–${withUnit(p.max)}`;
   const dflt = p.default === null ? p.defaultText : withUnit(p.default);
-  const input = el('input', {
-    id,
-    name: p.name,
-    type: 'number',
-    inputmode: 'decimal',
-    min: String(p.min),
-    max: String(p.max),
-    step: stepOf(p),
-    placeholder: p.default === null ? 'derived' : String(p.default),
-    'aria-describedby': `${id}-range ${id}-meaning ${id}-error`,
-  });
+  const describedBy = `${id}-range ${id}-meaning ${id}-error`;
+  let input;
+  let allowed;
+  if (p.type === 'choice') {
+    // an empty choice means the default, like an empty number field
+    input = el('select', { id, name: p.name, 'aria-describedby': describedBy }, [el('option', { value: '' }, [`(default: ${dflt})`]), ...p.values.map((v) => el('option', { value: v }, [v]))]);
+    allowed = `one of ${p.values.join(', ')}`;
+  } else if (p.type === 'text') {
+    input = el('input', { id, name: p.name, type: 'text', spellcheck: 'false', placeholder: String(p.default ?? ''), 'aria-describedby': describedBy });
+    allowed = 'text';
+  } else {
+    input = el('input', {
+      id,
+      name: p.name,
+      type: 'number',
+      inputmode: 'decimal',
+      min: String(p.min),
+      max: String(p.max),
+      step: stepOf(p),
+      placeholder: p.default === null ? 'derived' : String(p.default),
+      'aria-describedby': describedBy,
+    });
+    allowed = `${p.type === 'integer' ? 'whole number, ' : ''}${p.min}–${withUnit(p.max)}`;
+  }
   return el('div', { class: 'field param', 'data-param': p.name }, [
-    el('label', { for: id }, [LABELS[p.name] ?? p.name, ' ', el('code', {}, [p.name])]),
+    el('label', { for: id }, LABELS[p.name] ? [LABELS[p.name], ' ', el('code', {}, [p.name])] : [el('code', {}, [p.name])]),
     el('div', { class: 'with-unit' }, [input, el('span', { class: 'unit', 'aria-hidden': 'true' }, [unit])]),
-    el('p', { class: 'help', id: `${id}-range` }, [`${p.type === 'integer' ? 'whole number, ' : ''}${range} · default ${dflt}`]),
+    el('p', { class: 'help', id: `${id}-range` }, [`${allowed} · default ${dflt}`]),
     el('p', { class: 'meaning', id: `${id}-meaning` }, [p.meaning]),
     el('p', { class: 'field-error', id: `${id}-error`, hidden: '' }, []),
   ]);

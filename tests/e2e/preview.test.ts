@@ -102,11 +102,19 @@ describe.skipIf(!RUN)(RUN ? 'preview page in chromium' : `preview page in chromi
     const id = await nextTrack(undefined);
     const track = generateTrack({ seed: 'larkspur-preview', lengthM: 1800 });
     expect(id).toBe(track.id);
-    // every parameter has a labelled input with the service's range
+    // every parameter has a labelled field with the service's range or choices
     for (const p of describeParams().parameters) {
       // the accessible name is the short label and the API name: "Lap length lengthM"
-      const input = page.getByRole('spinbutton', { name: new RegExp(`(^| )${p.name.replace('.', '\\.')}$`) });
-      expect([p.name, await input.getAttribute('min'), await input.getAttribute('max')]).toEqual([p.name, String(p.min), String(p.max)]);
+      const name = new RegExp(`(^| )${p.name.replace(/\./g, '\\.')}$`);
+      if (p.type === 'number' || p.type === 'integer') {
+        const input = page.getByRole('spinbutton', { name });
+        expect([p.name, await input.getAttribute('min'), await input.getAttribute('max')]).toEqual([p.name, String(p.min), String(p.max)]);
+      } else if (p.type === 'choice') {
+        const options = await page.getByRole('combobox', { name }).locator('option').evaluateAll((os) => os.map((o) => (o as HTMLOptionElement).value));
+        expect([p.name, options]).toEqual([p.name, ['', ...p.values!]]);
+      } else {
+        expect(await page.getByRole('textbox', { name }).count()).toBe(1);
+      }
     }
     expect(await page.inputValue('#param-lengthM')).toBe('1800');
     expect(await page.inputValue('#seed')).toBe('larkspur-preview');

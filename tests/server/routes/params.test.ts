@@ -1,5 +1,6 @@
 import type { FastifyInstance } from 'fastify';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { z } from 'zod';
 import { DEFAULTS, LIMITS } from '../../../src/core/index.js';
 import { EXPORT_FORMAT_NAMES, SVG_WIDTH_LIMITS_PX } from '../../../src/export/index.js';
 import { trackRequestSchema } from '../../../src/schema/params.js';
@@ -63,6 +64,7 @@ describe('describeParams', () => {
 
   it('every range is one the request schema accepts at both ends and refuses just outside', () => {
     for (const p of doc.parameters) {
+      if (p.min === undefined || p.max === undefined) throw new Error(`${p.name} has no range`);
       const request = (value: number) => {
         const [head, sub] = p.name.split('.');
         return sub === undefined ? { [head]: value } : { [head]: { [sub]: value } };
@@ -70,7 +72,7 @@ describe('describeParams', () => {
       expect(trackRequestSchema.safeParse(request(p.min)).success, `${p.name} = ${p.min}`).toBe(true);
       expect(trackRequestSchema.safeParse(request(p.max)).success, `${p.name} = ${p.max}`).toBe(true);
       expect(trackRequestSchema.safeParse(request(p.max + 1)).success, `${p.name} = ${p.max + 1}`).toBe(false);
-      if (p.default !== null) expect(p.default >= p.min && p.default <= p.max).toBe(true);
+      if (typeof p.default === 'number') expect(p.default >= p.min && p.default <= p.max).toBe(true);
       expect(p.meaning).not.toMatch(/Unit:|Allowed:|Default:/);
     }
   });
@@ -81,5 +83,24 @@ describe('describeParams', () => {
     expect(doc.exportOptions.map((o) => `${o.format}:${o.name}:${o.type}`)).toEqual(['csv:table:string', 'svg:heat:boolean', 'svg:widthPx:integer', 'json:pretty:boolean']);
     expect(doc.exportOptions.find((o) => o.name === 'widthPx')).toMatchObject(SVG_WIDTH_LIMITS_PX);
     expect(doc.exportOptions.find((o) => o.name === 'table')?.values).toEqual(['centerline', 'gates']);
+  });
+});
+
+describe('describeParams of other kinds of parameter', () => {
+  // a made-up request schema with a word choice, a flag, a speed and an acceleration
+  const schema = z.strictObject({
+    mode: z.enum(['calm', 'eager']).optional().meta({ description: 'How to go. Default: calm.', default: 'calm' }),
+    flag: z.boolean().optional().meta({ description: 'A switch.' }),
+    topSpeedMps: z.number().min(1).max(100).optional().meta({ description: 'Top speed. Unit: m/s. Allowed: 1 to 100. Default: 30.', default: 30 }),
+    kart: z.strictObject({ maxAccelMps2: z.number().min(0.5).max(20).optional().meta({ description: 'Push. Unit: m/s². Allowed: 0.5 to 20. Default: 4.', default: 4 }) }).optional(),
+  });
+
+  it('a choice lists its words, anything without a range is text, and units follow the name', () => {
+    expect(describeParams(schema).parameters).toEqual([
+      { name: 'mode', type: 'choice', unit: null, values: ['calm', 'eager'], default: 'calm', defaultText: 'calm', meaning: 'How to go. Default: calm.' },
+      { name: 'flag', type: 'text', unit: null, default: null, defaultText: 'derived', meaning: 'A switch.' },
+      { name: 'topSpeedMps', type: 'number', unit: 'm/s', min: 1, max: 100, default: 30, defaultText: '30', meaning: 'Top speed.' },
+      { name: 'kart.maxAccelMps2', type: 'number', unit: 'm/s²', min: 0.5, max: 20, default: 4, defaultText: '4', meaning: 'Push.' },
+    ]);
   });
 });
