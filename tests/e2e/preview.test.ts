@@ -3,7 +3,7 @@
  * against the service listening on a loopback port. It loads the page, changes a parameter and
  * the seed and sees the drawing and the metrics follow, asks for an infeasible and a malformed
  * track and sees the service's explanation, downloads the glb, reopens a shared link, and takes
- * a screenshot of the page at 1280 x 800: examples/preview.png (shown in docs/preview.md),
+ * a screenshot of the page at 1280 x 800: examples/preview.png (shown in the README),
  * written when it is missing or with UPDATE_SCREENSHOT=1 (it shows this run's loopback port, so
  * rewriting it on every run would only churn the file).
  *
@@ -27,7 +27,7 @@ const HAS_CHROMIUM = existsSync(CHROMIUM);
 const IN_CI = process.env.CI !== undefined && process.env.CI !== '' && process.env.CI !== 'false';
 const RUN = HAS_CHROMIUM || IN_CI;
 const SKIP_REASON = `skipped: no chromium at ${CHROMIUM} (install it with apt-get install -y chromium, or set LAPWRIGHT_CHROMIUM)`;
-/** Where the screenshot goes (committed, shown in docs/preview.md); UPDATE_SCREENSHOT=1 rewrites it. */
+/** Where the screenshot goes (committed, shown in the README); UPDATE_SCREENSHOT=1 rewrites it. */
 const SCREENSHOT = new URL('../../examples/preview.png', import.meta.url);
 const UPDATE_SCREENSHOT = process.env.UPDATE_SCREENSHOT === '1';
 /** Longest wait for one thing the page does (a track is generated in well under a second). */
