@@ -14,10 +14,14 @@ import { type AppOptions, type ResolvedAppOptions, resolveAppOptions } from './c
 import { handleError, handleNotFound } from './error-handler.js';
 import { HttpError, unavailable } from './errors.js';
 import { TrackPool } from './pool/track-pool.js';
+import { batchRoutes, DATASETS_TAG } from './routes/batches.js';
+import { curriculumRoutes } from './routes/curricula.js';
+import { distanceRoutes } from './routes/distance.js';
 import { healthRoutes } from './routes/health.js';
 import { paramsRoutes } from './routes/params.js';
 import { presetRoutes } from './routes/presets.js';
 import { schemaRoutes } from './routes/schema.js';
+import { splitRoutes } from './routes/splits.js';
 import { trackRoutes } from './routes/tracks.js';
 import { validateRoutes } from './routes/validate.js';
 import { webRoutes } from './routes/web.js';
@@ -103,6 +107,7 @@ export const lapwrightService: FastifyPluginAsync<ResolvedAppOptions> = async (a
       tags: [
         { name: 'tracks', description: 'Generate and check tracks' },
         { name: 'service', description: 'Health, readiness and documentation' },
+        DATASETS_TAG,
       ],
     },
     transform: createJsonSchemaTransform({ skipList: [] }),
@@ -115,6 +120,11 @@ export const lapwrightService: FastifyPluginAsync<ResolvedAppOptions> = async (a
   await app.register(presetRoutes);
   await app.register(paramsRoutes);
   await app.register(schemaRoutes);
+  // training-farm workflows: batches, held-out splits, novelty, curricula
+  await app.register(batchRoutes);
+  await app.register(splitRoutes);
+  await app.register(distanceRoutes);
+  await app.register(curriculumRoutes);
 
   app.get('/openapi.json', { schema: { hide: true } }, async (_request, reply) => reply.type('application/json; charset=utf-8').send(app.swagger()));
   // the UI and its assets ship inside the package: /docs works with no network

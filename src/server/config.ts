@@ -4,6 +4,7 @@
  * environment with `readServerConfig`, which names every bad variable at once.
  */
 import { availableParallelism } from 'node:os';
+import { type BatchOptions, readBatchEnv } from './batch-options.js';
 
 /** Options of buildApp; each has a default (see APP_DEFAULTS and resolveAppOptions). */
 export interface AppOptions {
@@ -27,6 +28,8 @@ export interface AppOptions {
   readonly workerUrl?: URL;
   /** Data handed to each worker (tests). */
   readonly workerData?: Readonly<Record<string, unknown>>;
+  /** Knobs of the batch routes (src/server/batch-options.ts); their defaults are filled by the routes. */
+  readonly batch?: BatchOptions;
 }
 
 /** AppOptions with every default filled in. */
@@ -41,6 +44,7 @@ export interface ResolvedAppOptions {
   readonly startPool: boolean;
   readonly workerUrl?: URL;
   readonly workerData?: Readonly<Record<string, unknown>>;
+  readonly batch?: BatchOptions;
 }
 
 /** The listening entry's configuration: where to listen, and the app's options. */
@@ -125,6 +129,7 @@ export function resolveAppOptions(options: AppOptions = {}): ResolvedAppOptions 
     startPool: options.startPool ?? true,
     workerUrl: options.workerUrl,
     workerData: options.workerData,
+    batch: options.batch,
   };
   for (const key of ['workers', 'maxQueue', 'deadlineMs', 'bodyLimitBytes', 'trackBodyLimitBytes', 'retryAfterS'] as const) {
     const spec: EnvVar = ENV_VARS[key];
@@ -167,6 +172,7 @@ export function readServerConfig(env: Readonly<Record<string, string | undefined
     trackBodyLimitBytes: int(ENV_VARS.trackBodyLimitBytes),
     retryAfterS: int(ENV_VARS.retryAfterS),
     logger: { level: logLevel },
+    batch: readBatchEnv(env, problems),
   };
   if (problems.length > 0) throw new ConfigError(problems);
   return { port, host, logLevel, shutdownTimeoutMs, app: resolveAppOptions(options) };

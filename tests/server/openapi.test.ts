@@ -31,6 +31,10 @@ describe('OpenAPI document', () => {
         'GET /v1/presets 200',
         'GET /v1/params 200',
         'GET /v1/schema/track 200',
+        'POST /v1/batches 200,400,413,415,422,503',
+        'GET /v1/splits/{seed} 200,400',
+        'POST /v1/tracks/distance 200,400,413,422,503',
+        'POST /v1/curricula 200,400,422,503',
       ]);
       // the preview page and its assets are not part of the API
       expect(Object.keys(doc.paths).filter((p) => p === '/' || p.startsWith('/assets'))).toEqual([]);

@@ -4,6 +4,7 @@
  */
 import type { Issue, InfeasibleReason, Seed, TrackRequest } from '../../core/index.js';
 import type { ExportFormat, ExportOptions } from '../../export/index.js';
+import type { DistanceTaskInput, DistanceTaskOutput, RemakeTaskInput, RemakeTaskOutput, SlotTaskInput, SlotTaskOutput } from '../../batch/slot-task.js';
 
 /** How a generated track is to be answered: an export format and its options (checked by the server). */
 export interface ExportRequest {
@@ -12,10 +13,16 @@ export interface ExportRequest {
 }
 
 /**
- * Work a worker can do: generate one track (as JSON, or exported when `export` says so), or
- * check one uploaded track.
+ * Work a worker can do: generate one track (as JSON, or exported when `export` says so), check
+ * one uploaded track, make one slot of a batch, make a manifest's track again, or measure a
+ * turning distance (the last three: src/batch/slot-task.ts).
  */
-export type TaskInput = { readonly kind: 'generate'; readonly request: TrackRequest; readonly export?: ExportRequest } | { readonly kind: 'validate'; readonly track: unknown };
+export type TaskInput =
+  | { readonly kind: 'generate'; readonly request: TrackRequest; readonly export?: ExportRequest }
+  | { readonly kind: 'validate'; readonly track: unknown }
+  | SlotTaskInput
+  | RemakeTaskInput
+  | DistanceTaskInput;
 
 /** The typed infeasibility error of the core, as plain data. */
 export interface InfeasibleData {
@@ -53,6 +60,9 @@ export interface GeneratedData {
 export type TaskOutput =
   | GeneratedData
   | { readonly ok: true; readonly kind: 'validate'; readonly valid: boolean; readonly issues: readonly Issue[] }
+  | SlotTaskOutput
+  | RemakeTaskOutput
+  | DistanceTaskOutput
   | { readonly ok: false; readonly error: InfeasibleData | InternalData };
 
 /** Server → worker. */

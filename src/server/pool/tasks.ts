@@ -6,6 +6,7 @@
 import { generateTrackJson, isInfeasibleError, validateTrack } from '../../core/index.js';
 import type { Track } from '../../core/index.js';
 import { EXPORT_FORMATS, exportFileName, exportTrack } from '../../export/index.js';
+import { runDistanceTask, runRemakeTask, runSlotTask } from '../../batch/slot-task.js';
 import type { ExportRequest, TaskInput, TaskOutput } from './protocol.js';
 
 const ENCODER = new TextEncoder();
@@ -29,6 +30,9 @@ export async function runTask(input: TaskInput): Promise<{ output: TaskOutput; t
       const output: TaskOutput = { ok: true, kind: 'generate', id: track.id, seed: track.seed, format, mediaType: EXPORT_FORMATS[format].mediaType, fileName: exportFileName(track, format, options), bytes };
       return { output, transfer: [bytes.buffer as ArrayBuffer] };
     }
+    if (input.kind === 'batch-slot') return await runSlotTask(input);
+    if (input.kind === 'remake') return await runRemakeTask(input);
+    if (input.kind === 'distance') return runDistanceTask(input);
     // the server checked the shape with trackSchema; the checker takes it from here
     const result = validateTrack(input.track as Track);
     return { output: { ok: true, kind: 'validate', valid: result.valid, issues: result.issues }, transfer: [] };
