@@ -144,7 +144,9 @@ function leafDoc(name: string, unit: ParamUnit | null, node: JsonSchemaNode, inh
   const description = node.description ?? '';
   const own = isScalar(node.default) ? node.default : isScalar(inherited) ? inherited : null;
   const words = /Default: (.+?)\.?$/.exec(description)?.[1];
-  const base = { name, default: own, defaultText: own !== null ? String(own) : (words ?? 'derived'), meaning: description.split(' Unit:')[0] };
+  // the meaning is the description without the unit, range and default it ends with
+  const meaning = description.split(' Unit:')[0].replace(/ Default: .*$/, '');
+  const base = { name, default: own, defaultText: own !== null ? String(own) : (words ?? 'derived'), meaning };
   if (node.enum !== undefined) return { ...base, type: 'choice', unit: null, values: node.enum };
   if ((node.type === 'number' || node.type === 'integer') && node.minimum !== undefined && node.maximum !== undefined) {
     return { ...base, type: node.type, unit, min: node.minimum, max: node.maximum };

@@ -30,7 +30,14 @@ describe('describeParams', () => {
   const byName = new Map<string, ParamDoc>(doc.parameters.map((p) => [p.name, p]));
 
   it('lists every request parameter but the seed, nested ones dotted, in the schema\'s order', () => {
-    expect(doc.parameters.map((p) => p.name)).toEqual([
+    // the oracle: the zod shape itself (object fields hold the nested parameters)
+    const expected = Object.entries(trackRequestSchema.shape).flatMap(([key, field]) => {
+      if (key === 'seed') return [];
+      const inner = (field as z.ZodOptional<z.ZodType>).unwrap();
+      return inner instanceof z.ZodObject ? Object.keys(inner.shape).map((sub) => `${key}.${sub}`) : [key];
+    });
+    expect(doc.parameters.map((p) => p.name)).toEqual(expected);
+    expect(expected.slice(0, 16)).toEqual([
       'lengthM',
       'widthM.min',
       'widthM.max',
@@ -62,18 +69,25 @@ describe('describeParams', () => {
     expect(byName.get('cornerCount')).toMatchObject({ type: 'integer', default: null, defaultText: 'derived from lengthM and curvatureBudgetDeg' });
   });
 
-  it('every range is one the request schema accepts at both ends and refuses just outside', () => {
+  it('every range is one the request schema accepts at both ends and refuses just outside; every choice lists what it accepts', () => {
+    const request = (name: string, value: unknown) => {
+      const [head, sub] = name.split('.');
+      return sub === undefined ? { [head]: value } : { [head]: { [sub]: value } };
+    };
     for (const p of doc.parameters) {
-      if (p.min === undefined || p.max === undefined) throw new Error(`${p.name} has no range`);
-      const request = (value: number) => {
-        const [head, sub] = p.name.split('.');
-        return sub === undefined ? { [head]: value } : { [head]: { [sub]: value } };
-      };
-      expect(trackRequestSchema.safeParse(request(p.min)).success, `${p.name} = ${p.min}`).toBe(true);
-      expect(trackRequestSchema.safeParse(request(p.max)).success, `${p.name} = ${p.max}`).toBe(true);
-      expect(trackRequestSchema.safeParse(request(p.max + 1)).success, `${p.name} = ${p.max + 1}`).toBe(false);
-      if (typeof p.default === 'number') expect(p.default >= p.min && p.default <= p.max).toBe(true);
       expect(p.meaning).not.toMatch(/Unit:|Allowed:|Default:/);
+      if (p.type === 'choice') {
+        for (const value of p.values!) expect(trackRequestSchema.safeParse(request(p.name, value)).success, `${p.name} = ${value}`).toBe(true);
+        expect(trackRequestSchema.safeParse(request(p.name, 'none-of-these')).success).toBe(false);
+        continue;
+      }
+      // every parameter of the request schema today is a bounded number or a choice
+      expect(['number', 'integer'], p.name).toContain(p.type);
+      if (p.min === undefined || p.max === undefined) throw new Error(`${p.name} has no range`);
+      expect(trackRequestSchema.safeParse(request(p.name, p.min)).success, `${p.name} = ${p.min}`).toBe(true);
+      expect(trackRequestSchema.safeParse(request(p.name, p.max)).success, `${p.name} = ${p.max}`).toBe(true);
+      expect(trackRequestSchema.safeParse(request(p.name, p.max + 1)).success, `${p.name} = ${p.max + 1}`).toBe(false);
+      if (typeof p.default === 'number') expect(p.default >= p.min && p.default <= p.max).toBe(true);
     }
   });
 
@@ -97,7 +111,7 @@ describe('describeParams of other kinds of parameter', () => {
 
   it('a choice lists its words, anything without a range is text, and units follow the name', () => {
     expect(describeParams(schema).parameters).toEqual([
-      { name: 'mode', type: 'choice', unit: null, values: ['calm', 'eager'], default: 'calm', defaultText: 'calm', meaning: 'How to go. Default: calm.' },
+      { name: 'mode', type: 'choice', unit: null, values: ['calm', 'eager'], default: 'calm', defaultText: 'calm', meaning: 'How to go.' },
       { name: 'flag', type: 'text', unit: null, default: null, defaultText: 'derived', meaning: 'A switch.' },
       { name: 'topSpeedMps', type: 'number', unit: 'm/s', min: 1, max: 100, default: 30, defaultText: '30', meaning: 'Top speed.' },
       { name: 'kart.maxAccelMps2', type: 'number', unit: 'm/s²', min: 0.5, max: 20, default: 4, defaultText: '4', meaning: 'Push.' },
