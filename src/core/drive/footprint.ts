@@ -1,0 +1,113 @@
+/**
+ * The car's footprint on the road: a lengthM × widthM rectangle centred midway between the axles,
+ * its long side along the heading, and its smallest distance to the wall faces (road-strip.ts).
+ *
+ * The distance between a convex polygon and a polyline that do not meet is attained at a vertex
+ * of one of them against an edge of the other, so two families of tests give it exactly:
+ * - each corner of the rectangle against the face segment of the quad it lies in (a corner off
+ *   the road has a negative distance: the footprint crosses the wall);
+ * - each wall face vertex near the car against the rectangle (a vertex inside it is a crossing
+ *   too: on the inside of a tight corner the wall can bulge between two corners of the car).
+ * A wall segment that cuts the rectangle with both ends outside it leaves a corner beyond the
+ * face, so the first family catches that crossing.
+ *
+ * Axes: x right, y up, metres; the heading is a unit vector.
+ */
+import { leftFaceDistance, locateQuad, rightFaceDistance, type RoadStrip } from './road-strip.js';
+
+/** Size of the car and where its rear axle sits, metres. */
+export interface FootprintSpec {
+  readonly lengthM: number;
+  readonly widthM: number;
+  readonly wheelbaseM: number;
+}
+
+/** Closest approach of the footprint to a wall at one pose (reused between calls). */
+export interface FootprintClearance {
+  /** Smallest distance to a wall face, metres; negative when the footprint crosses it. */
+  marginM: number;
+  /** 1: the left wall is the closest, -1: the right one. */
+  side: number;
+  /** Quad of the footprint's centre (a hint for the next pose); -1 when it could not be located. */
+  quad: number;
+  /** Whether the wall vertices were tested (marginM is then exact). */
+  exact: boolean;
+}
+
+/** Which wall vertices a clearance test looks at (see footprintClearance). */
+export interface VertexReach {
+  readonly window: number;
+  readonly bulgeM: number;
+  floorM: number;
+}
+
+/**
+ * Distance from the footprint at a pose to the nearest wall face.
+ *
+ * @param strip the road
+ * @param spec footprint and wheelbase
+ * @param x rear axle's centre, metres
+ * @param y rear axle's centre, metres
+ * @param ux unit heading vector
+ * @param uy unit heading vector
+ * @param hint a quad near the car (the last pose's `quad`)
+ * @param reach which wall vertices to test against the rectangle, and when: `window` vertices
+ *   either side of the centre's quad (enough to span half the car's diagonal along the tightest
+ *   face); skipped when the corners keep more than `floorM + bulgeM` from the walls, where
+ *   `bulgeM` bounds how far a face can bulge into the rectangle between two of its corners
+ * @param out receives the answer: the exact margin, or, when the vertices were skipped, the
+ *   corners' margin (the exact one then lies in [marginM - bulgeM, marginM], above floorM)
+ * @returns `out`
+ */
+export function footprintClearance(strip: RoadStrip, spec: FootprintSpec, x: number, y: number, ux: number, uy: number, hint: number, reach: VertexReach, out: FootprintClearance): FootprintClearance {
+  const halfL = spec.lengthM / 2, halfW = spec.widthM / 2;
+  const cx = x + (spec.wheelbaseM / 2) * ux, cy = y + (spec.wheelbaseM / 2) * uy;
+  const centre = locateQuad(strip, cx, cy, hint);
+  out.quad = centre;
+  out.marginM = Infinity;
+  out.side = 0;
+  out.exact = true;
+  if (centre < 0) {
+    out.marginM = -Infinity;
+    return out;
+  }
+  const n = strip.n;
+  // the front and rear corners lie about half a length ahead of and behind the centre
+  const shift = Math.min(n >> 2, Math.round(halfL / strip.spacingM));
+  for (let c = 0; c < 4; c++) {
+    const a = c & 1 ? halfL : -halfL, b = c & 2 ? halfW : -halfW;
+    const px = cx + a * ux - b * uy, py = cy + a * uy + b * ux;
+    const j = locateQuad(strip, px, py, (centre + (c & 1 ? shift : n - shift)) % n);
+    if (j < 0) {
+      out.marginM = -Infinity;
+      out.side = b > 0 ? 1 : -1;
+      return out;
+    }
+    const dl = leftFaceDistance(strip, j, px, py);
+    if (dl < out.marginM) (out.marginM = dl), (out.side = 1);
+    const dr = rightFaceDistance(strip, j, px, py);
+    if (dr < out.marginM) (out.marginM = dr), (out.side = -1);
+  }
+  if (out.marginM - reach.bulgeM > reach.floorM) {
+    out.exact = false;
+    return out;
+  }
+  const window = reach.window;
+  for (let w = -window; w <= window + 1; w++) {
+    const i = (((centre + w) % n) + n) % n;
+    const dl = vertexToRectangle(strip.left[2 * i] - cx, strip.left[2 * i + 1] - cy, ux, uy, halfL, halfW);
+    if (dl < out.marginM) (out.marginM = dl), (out.side = 1);
+    const dr = vertexToRectangle(strip.right[2 * i] - cx, strip.right[2 * i + 1] - cy, ux, uy, halfL, halfW);
+    if (dr < out.marginM) (out.marginM = dr), (out.side = -1);
+  }
+  return out;
+}
+
+// distance from a point (relative to the rectangle's centre) to the rectangle; minus the depth inside it
+function vertexToRectangle(dx: number, dy: number, ux: number, uy: number, halfL: number, halfW: number): number {
+  const ox = Math.abs(dx * ux + dy * uy) - halfL;
+  const oy = Math.abs(-dx * uy + dy * ux) - halfW;
+  if (ox < 0 && oy < 0) return Math.max(ox, oy);
+  const px = ox > 0 ? ox : 0, py = oy > 0 ? oy : 0;
+  return Math.sqrt(px * px + py * py);
+}

@@ -1,0 +1,123 @@
+/**
+ * Casting a ray along the road strip (road-strip.ts): from its quad, the ray leaves each convex
+ * quad through exactly one edge; through a rung it enters the neighbouring quad, through a wall
+ * face it has hit the wall. A ray that starts on the road therefore meets the first wall face it
+ * reaches, whichever part of the lap that face belongs to, after visiting only the quads it
+ * crosses. Gates between the rungs of a visited quad are tested on the way.
+ *
+ * Exit edge of a convex polygon: the edge A→B (interior on its left, counter-clockwise order)
+ * is crossed outward where cross(B − A, P + tD − A) falls through 0, i.e. for cross(B − A, D) < 0
+ * at t = −cross(B − A, P − A) / cross(B − A, D); the smallest such t is the exit (the classic
+ * convex clipping of a line against half-planes: Cyrus & Beck, "Generalized two- and
+ * three-dimensional clipping", Computers & Graphics 3(1) (1978) 23–28).
+ *
+ * Axes: x right, y up, metres.
+ */
+import type { RoadStrip } from './road-strip.js';
+
+/** Gate segments grouped by the quad they lie in. */
+export interface GateCells {
+  /** Gates of quad j are first[j] .. first[j + 1] - 1 (n + 1 entries). */
+  readonly first: Int32Array;
+  /** [lx, ly, rx, ry] per gate, metres, ordered by quad. */
+  readonly ends: Float64Array;
+}
+
+/** What a ray met: distances along it, metres (Infinity when nothing within its length). */
+export interface RayHit {
+  wallM: number;
+  /** 1: the left wall face, -1: the right one, 0: none. */
+  wallSide: number;
+  gateM: number;
+}
+
+// edges of quad j: 0 right face, 1 front rung, 2 left face, 3 back rung
+const NONE = -1;
+
+/**
+ * Casts one ray from a point inside quad `j` (or on its edge).
+ *
+ * @param strip the road
+ * @param j the quad the ray starts in
+ * @param px start, metres
+ * @param py start, metres
+ * @param dx unit direction
+ * @param dy unit direction
+ * @param lengthM ray length, metres
+ * @param gates gate segments per quad, or null to ignore gates
+ * @param out receives the hit (reused to avoid allocation)
+ * @returns `out`
+ */
+export function castRay(strip: RoadStrip, j: number, px: number, py: number, dx: number, dy: number, lengthM: number, gates: GateCells | null, out: RayHit): RayHit {
+  const { n, left: L, right: R } = strip;
+  out.wallM = Infinity;
+  out.wallSide = 0;
+  out.gateM = Infinity;
+  let entry = NONE;
+  for (let visited = 0; visited <= n; visited++) {
+    const k = j + 1 === n ? 0 : j + 1;
+    if (gates !== null && out.gateM === Infinity) {
+      for (let g = gates.first[j]; g < gates.first[j + 1]; g++) {
+        const t = raySegment(px, py, dx, dy, gates.ends[4 * g], gates.ends[4 * g + 1], gates.ends[4 * g + 2], gates.ends[4 * g + 3]);
+        if (t <= lengthM && t < out.gateM) out.gateM = t;
+      }
+    }
+    let best = Infinity, exit = NONE;
+    for (let e = 0; e < 4; e++) {
+      if (e === entry) continue;
+      // edge A→B of quad j, counter-clockwise
+      let ax: number, ay: number, bx: number, by: number;
+      if (e === 0) (ax = R[2 * j]), (ay = R[2 * j + 1]), (bx = R[2 * k]), (by = R[2 * k + 1]);
+      else if (e === 1) (ax = R[2 * k]), (ay = R[2 * k + 1]), (bx = L[2 * k]), (by = L[2 * k + 1]);
+      else if (e === 2) (ax = L[2 * k]), (ay = L[2 * k + 1]), (bx = L[2 * j]), (by = L[2 * j + 1]);
+      else (ax = L[2 * j]), (ay = L[2 * j + 1]), (bx = R[2 * j]), (by = R[2 * j + 1]);
+      const ex = bx - ax, ey = by - ay;
+      const den = ex * dy - ey * dx;
+      if (!(den < 0)) continue;
+      const t = -(ex * (py - ay) - ey * (px - ax)) / den;
+      if (t < best) (best = t), (exit = e);
+    }
+    if (exit === NONE || best > lengthM) return out;
+    if (exit === 0 || exit === 2) {
+      out.wallM = Math.max(0, best);
+      out.wallSide = exit === 2 ? 1 : -1;
+      return out;
+    }
+    if (exit === 1) (j = k), (entry = 3);
+    else (j = j === 0 ? n - 1 : j - 1), (entry = 1);
+  }
+  return out;
+}
+
+/**
+ * Groups gate segments by quad: a gate at lap position s lies in quad floor(s / spacing).
+ * @param gates gates ordered by s, with ends on the wall faces
+ */
+export function gateCells(strip: RoadStrip, gates: readonly { readonly s: number; readonly left: readonly [number, number]; readonly right: readonly [number, number] }[]): GateCells {
+  const { n, spacingM } = strip;
+  const quadOf = gates.map((g) => Math.min(n - 1, Math.max(0, Math.floor(g.s / spacingM))));
+  const first = new Int32Array(n + 1);
+  for (const q of quadOf) first[q + 1]++;
+  for (let j = 0; j < n; j++) first[j + 1] += first[j];
+  const next = first.slice(0, n);
+  const ends = new Float64Array(4 * gates.length);
+  gates.forEach((g, i) => {
+    const at = next[quadOf[i]]++;
+    ends[4 * at] = g.left[0];
+    ends[4 * at + 1] = g.left[1];
+    ends[4 * at + 2] = g.right[0];
+    ends[4 * at + 3] = g.right[1];
+  });
+  return { first, ends };
+}
+
+// distance along the ray (unit direction) to the segment A–B, Infinity when it misses
+function raySegment(px: number, py: number, dx: number, dy: number, ax: number, ay: number, bx: number, by: number): number {
+  const ex = bx - ax, ey = by - ay;
+  const den = dx * ey - dy * ex;
+  if (den === 0) return Infinity;
+  const wx = ax - px, wy = ay - py;
+  const t = (wx * ey - wy * ex) / den;
+  const u = (wx * dy - wy * dx) / den;
+  return t >= 0 && u >= 0 && u <= 1 ? t : Infinity;
+}

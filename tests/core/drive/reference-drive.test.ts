@@ -1,0 +1,69 @@
+// Tests for src/core/drive/reference-drive.ts: one lap of pure pursuit on the kinematic bicycle.
+
+import { describe, expect, it } from 'vitest';
+import { referenceDrive, type DriveVehicle } from '../../../src/core/drive/reference-drive.js';
+import { buildRoadStrip } from '../../../src/core/drive/road-strip.js';
+import { speedProfile } from '../../../src/core/drive/speed-profile.js';
+import { stadiumTrack } from '../../helpers/synthetic-track.js';
+
+const car: DriveVehicle = { wheelbaseM: 2.5, widthM: 2, lengthM: 4.5, maxSteerRad: Math.PI / 6, accelMps2: 6, brakeMps2: 8 };
+const limits = { mu: 0.9, maxAccelMps2: 6, maxBrakeMps2: 8, topSpeedMps: 60 };
+
+function drive(track: ReturnType<typeof stadiumTrack>, vehicle: DriveVehicle = car) {
+  const strip = buildRoadStrip(track);
+  const p = speedProfile(track.centerline.curvature, track.centerline.spacingM, limits);
+  return { profile: p, result: referenceDrive(strip, p.speedMps, (track.centerline.headingDeg[0] * Math.PI) / 180, vehicle, p.lapTimeS) };
+}
+
+describe('referenceDrive', () => {
+  it('laps a stadium close to the centerline and to the profile lap time, clear of the walls', () => {
+    const { profile, result } = drive(stadiumTrack());
+    expect(result.completed).toBe(true);
+    expect(result.failure).toBeNull();
+    // the car follows the profile's speeds; cutting the corner entries a little shortens its path
+    expect(Math.abs(result.lapTimeS / profile.lapTimeS - 1)).toBeLessThan(0.02);
+    expect(result.maxLateralDeviationM).toBeLessThan(0.5);
+    // half widths are at least 4.25 m, the car 1 m each side of its axis
+    expect(result.minWallMarginM).toBeGreaterThan(2.5);
+    expect(result.minWallMarginM).toBeLessThan(5);
+  });
+
+  it('on a constant-radius arc pure pursuit settles on the path itself (goal on the circle: γ = 1/R)', () => {
+    // a long half circle: by its middle the rear axle is back on the centerline (Coulter 1992)
+    const track = stadiumTrack({ radiusM: 120, straightM: 40 });
+    const strip = buildRoadStrip(track);
+    const p = speedProfile(track.centerline.curvature, track.centerline.spacingM, limits);
+    const r = referenceDrive(strip, p.speedMps, 0, car, p.lapTimeS);
+    expect(r.completed).toBe(true);
+    expect(r.maxLateralDeviationM).toBeLessThan(0.3);
+  });
+
+  it('the same inputs give the same lap, to the last bit', () => {
+    expect(drive(stadiumTrack()).result).toEqual(drive(stadiumTrack()).result);
+  });
+
+  it('a car wider than the road fails at the start, on the wall nearest to it', () => {
+    const { result } = drive(stadiumTrack(), { ...car, widthM: 11 });
+    expect(result.completed).toBe(false);
+    expect(result.failure).toBe('wall');
+    expect(result.minWallMarginM).toBeLessThan(0);
+    expect(Number.isNaN(result.lapTimeS)).toBe(true);
+  });
+
+  it('a car that cannot turn tightly enough runs wide into the first half circle and says where', () => {
+    // lock 2°: the tightest circle is 2.5 / tan 2° = 71.6 m, the corner 25 m
+    const track = stadiumTrack({ radiusM: 25, straightM: 120 });
+    const { result } = drive(track, { ...car, maxSteerRad: (2 * Math.PI) / 180 });
+    expect(result.completed).toBe(false);
+    expect(result.failure).toBe('wall');
+    // the right (outer) wall of the first half circle, which runs from s = 60 m to 60 + 25π m
+    expect(result.side).toBe('right');
+    expect(result.atS).toBeGreaterThan(60);
+    expect(result.atS).toBeLessThan(60 + 25 * Math.PI);
+  });
+
+  it('a speed profile of another length is a programmer error', () => {
+    const track = stadiumTrack();
+    expect(() => referenceDrive(buildRoadStrip(track), new Float64Array(3), 0, car, 10)).toThrow(RangeError);
+  });
+});
