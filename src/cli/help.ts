@@ -6,6 +6,7 @@ import { z } from 'zod';
 import { SEED_MAX, SEED_STRING_MAX_CHARS } from '../core/index.js';
 import { SVG_DEFAULT_WIDTH_PX, SVG_WIDTH_LIMITS_PX } from '../export/index.js';
 import { trackRequestSchema } from '../schema/params.js';
+import { BATCH_ENV_VARS } from '../server/batch-options.js';
 import { ENV_VARS, SERVER_DEFAULTS } from '../server/config.js';
 
 /** Exit codes of every command, as `--help` prints them. */
@@ -14,7 +15,8 @@ export const EXIT_CODES_TEXT = `Exit codes:
   1  unexpected error (a failed write or a bug; a one-line message, never a stack trace)
   2  malformed input: bad flag, unreadable or invalid JSON, a field out of range (each named with its path)
   3  infeasible request: well-formed, but no valid track meets it (reason, message and hint on stderr)
-  4  validate only: the track is well-formed but breaks a guarantee (issues on stdout)`;
+  4  validate only: the track is well-formed but breaks a guarantee (issues on stdout);
+     and verify: a track or file does not match its manifest (every mismatch on stdout)`;
 
 /** `lapwright --help`. */
 export function mainHelp(): string {
@@ -26,8 +28,8 @@ Commands:
   generate   generate one track and print it as JSON (or glb, SVG, CSV)
   validate   check a track file against every guarantee and print {valid, issues}
   serve      run the HTTP service until SIGTERM (see lapwright serve --help)
-  batch, verify
-             not yet available in this version
+  batch      make a dataset: one file per track and manifest.json, on K worker threads
+  verify     make every track of a manifest again and compare ids and files
 
 Options:
   -h, --help  show this help; \`lapwright <command> --help\` shows a command's options
@@ -91,6 +93,70 @@ ${EXIT_CODES_TEXT}
 `;
 }
 
+/** `lapwright batch --help`. */
+export function batchHelp(): string {
+  return `Usage: lapwright batch --count N [--split train|validation|test] [--params RANGES.json] [--out DIR]
+                       [--format json|glb|svg] [--workers K] [--shard i/n] [--base-seed S]
+                       [--difficulty MIN:MAX] [--min-novelty RAD] [--reference MANIFEST.json]
+                       [--request BATCH.json] [--force] [--quiet]
+       lapwright batch --merge --out DIR
+
+Makes a dataset: track-000000.json, track-000001.json, ... (or .glb, .svg) and manifest.json in
+--out, the same tracks as POST /v1/batches with the same request. Every track's seed lies in
+--split (a keyed hash of the seed: 80% train, 10% validation, 10% test), so a train set never
+holds a test seed. Progress goes to stderr: a bar with tracks/s and ETA on a terminal, a plain
+line per tenth of the work otherwise.
+
+Options:
+  --count N             tracks in the dataset (required)
+  --split S             take only seeds of this split (default: any)
+  --params FILE | -     JSON parameters of every track, as for generate, but each number may be a
+                        range {"min": a, "max": b}, drawn from the track's own seed
+  --base-seed S         root of the dataset's seeds (default: drawn at random, kept in the manifest)
+  --difficulty MIN:MAX  keep only tracks whose difficulty lies in [MIN, MAX] (a curriculum stage's band)
+  --min-novelty RAD     skip tracks closer than RAD (turning-function distance) to an earlier track
+                        or to a --reference track
+  --reference FILE      manifest of tracks the new ones must be novel against (e.g. the train set)
+  --request FILE        a POST /v1/batches body (count, split, baseSeed, params, difficulty,
+                        minNovelty); the flags above override its fields
+  --out DIR             directory of the files (default .; created when missing)
+  --format F            json (default), glb or svg
+  --workers K           worker threads (default: the machine's cores; 0: none, all in this thread)
+  --shard i/n           make shard i of n (0 <= i < n): the indices i, i+n, i+2n, ... of the same
+                        dataset, files named as in the one-machine run, manifest.shard-i-of-n.json;
+                        n machines with the same flags make exactly the one-machine dataset
+  --merge               join the shard manifests in --out into manifest.json
+  --force               write over an existing manifest
+  --quiet               no progress or summary on stderr
+  -h, --help            show this help
+
+${EXIT_CODES_TEXT}
+`;
+}
+
+/** `lapwright verify --help`. */
+export function verifyHelp(): string {
+  return `Usage: lapwright verify MANIFEST.json [--reference MANIFEST.json] [--min-novelty RAD] [--workers K] [--quiet]
+
+Makes every track of a manifest again and checks that its seed, split and params follow from the
+batch's request, that it has the manifest's id and shape, that the file beside the manifest holds
+exactly its bytes (any edit is caught), that it lies in the difficulty band, and that it is at least
+minNovelty from the tracks before it. With --reference, also that no seed or track is shared with
+the reference manifest and that every track is at least minNovelty (or --min-novelty) from every
+reference track: the proof that a test set is disjoint from and novel against a train set.
+Every mismatch is one line on stdout; exit 4 when there is any.
+
+Options:
+  --reference FILE   a manifest the tracks must not share seeds or tracks with, and be novel against
+  --min-novelty RAD  the distance to check against the reference (default: the manifest's minNovelty)
+  --workers K        worker threads (default: the machine's cores; 0: none)
+  --quiet            no progress on stderr
+  -h, --help         show this help
+
+${EXIT_CODES_TEXT}
+`;
+}
+
 /** `lapwright serve --help`. */
 export function serveHelp(): string {
   return `Usage: lapwright serve [--port N] [--host ADDRESS]
@@ -104,7 +170,7 @@ Options:
   -h, --help        show this help
 
 Environment:
-${Object.values(ENV_VARS)
+${[...Object.values(ENV_VARS), ...Object.values(BATCH_ENV_VARS)]
   .map((v) => `  ${v.name.padEnd(33)} ${v.meaning} (default ${v.defaultText})`)
   .join('\n')}
 

@@ -4,16 +4,19 @@
  * exits the process.
  *
  * Exit codes: 0 success, 1 unexpected error, 2 malformed input, 3 infeasible request,
- * 4 (validate) a well-formed track that breaks a guarantee. Messages go to stderr, data to
+ * 4 (validate) a well-formed track that breaks a guarantee, (verify) a track or file that does
+ * not match its manifest. Messages go to stderr, data to
  * stdout, and no stack trace is ever printed.
  */
 import { ERROR_CODES, GENERATOR_VERSION, isInfeasibleError } from '../core/index.js';
 import type { InfeasibleError } from '../core/index.js';
+import { runBatchCommand } from './batch.js';
 import { runGenerate } from './generate.js';
 import { mainHelp } from './help.js';
 import { type CliIo, InputError, messageOf, writeText } from './io.js';
 import { runServe } from './serve.js';
 import { runValidate } from './validate.js';
+import { runVerify } from './verify.js';
 import { readPackageVersion } from '../version.js';
 
 export type { CliIo, TextSink } from './io.js';
@@ -33,10 +36,9 @@ const COMMANDS: Record<string, (args: readonly string[], io: CliIo) => Promise<n
   generate: runGenerate,
   validate: runValidate,
   serve: runServe,
+  batch: runBatchCommand,
+  verify: runVerify,
 };
-
-/** Commands of the product that this version does not ship yet. */
-const LATER_COMMANDS = new Set(['batch', 'verify']);
 
 /**
  * Runs one `lapwright` command line.
@@ -70,7 +72,6 @@ async function dispatch(command: string | undefined, rest: readonly string[], io
     return 0;
   }
   if (Object.hasOwn(COMMANDS, command)) return COMMANDS[command](rest, io);
-  if (LATER_COMMANDS.has(command)) throw new InputError(`${command} is not yet available in this version (see lapwright --help)`);
   if (command.startsWith('-')) throw new InputError(`unknown option ${command}; options go after the command (see lapwright --help)`);
   throw new InputError(`unknown command ${JSON.stringify(command)} (see lapwright --help)`);
 }

@@ -99,7 +99,8 @@ export const manifestSchema = z
       reference: z.object({ tracks: z.int(), digest: z.string() }).nullable().meta({ description: 'The reference: how many shapes, and the hex sha256 of the shapes joined by newlines.' }),
     }),
     split: splitEnum.nullable(),
-    shard: z.object({ index: z.int(), count: z.int() }).nullable(),
+    output: z.object({ format: z.string() }).optional().meta({ description: 'lapwright batch only: the format of the track files beside the manifest.' }),
+    shard: z.object({ index: z.int(), count: z.int() }).nullable().meta({ description: 'lapwright batch --shard i/n only: shard index of count (it holds the indices i, i + n, ...); null for a whole batch.' }),
     tracks: z.array(manifestTrackSchema),
     redrawn: z.int().meta({ description: 'Infeasible draws, redrawn with the slot\'s next seed.' }),
     skipped: z.object({

@@ -92,7 +92,7 @@ describe('exit 2: malformed input, one line per problem on stderr', () => {
   const cases: [string, string[], string][] = [
     ['unknown command', ['make'], 'lapwright: unknown command "make" (see lapwright --help)'],
     ['option before the command', ['--seed', '7'], 'lapwright: unknown option --seed; options go after the command (see lapwright --help)'],
-    ['command of a later version', ['batch'], 'lapwright: batch is not yet available in this version (see lapwright --help)'],
+    ['batch without --count', ['batch'], 'lapwright batch: --count is required (see lapwright batch --help)'],
     ['unknown flag', ['generate', '--colour', 'red'], 'lapwright generate: unknown option --colour (see lapwright generate --help)'],
     ['file argument to generate', ['generate', 'params.json'], 'lapwright generate: generate takes no file arguments, got "params.json" (parameters go in --params FILE or --set KEY=VALUE)'],
     ['--set without =', ['generate', '--set', 'noise'], 'lapwright generate: --set expects key=value (e.g. widthM.min=8), got "noise"'],
