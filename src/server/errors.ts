@@ -16,7 +16,7 @@ export const HTTP_ERRORS = {
   ERR_INVALID_JSON: { status: 400, meaning: 'request body is not JSON' },
   ERR_BAD_REQUEST: { status: 400, meaning: 'request malformed at the HTTP level (bad Content-Length, URL encoding)' },
   ERR_NOT_FOUND: { status: 404, meaning: 'no such route' },
-  ERR_NOT_ACCEPTABLE: { status: 406, meaning: 'the requested format (format query or Accept header) is not available' },
+  ERR_NOT_ACCEPTABLE: { status: 406, meaning: 'the Accept header allows none of the formats (JSON, glb, SVG, CSV)' },
   ERR_BODY_TOO_LARGE: { status: 413, meaning: 'request body over the size cap' },
   ERR_UNSUPPORTED_MEDIA_TYPE: { status: 415, meaning: 'request body is not application/json' },
   ERR_INFEASIBLE: { status: ERROR_CODES.ERR_INFEASIBLE.status, meaning: 'well-formed parameters that no valid track meets: reason, hint and the last attempt\'s issues' },
