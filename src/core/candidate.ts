@@ -1,7 +1,8 @@
 /**
  * One deterministic attempt of the pipeline, up to the shipped (rounded) track without its id:
  * plan → trace → coarse clearance → control points → spline centerline → widths, walls,
- * gates, spawns → corners and metrics. The checker and the id are the caller's (generate.ts).
+ * gates, spawns → corners, drivability assessment (speed profile, reference drive, sensors) and
+ * metrics. The checker, the drive's verdict and the id are the caller's (generate.ts).
  */
 import { placeControlPoints } from './centerline/control-points.js';
 import { interpolateClosed } from './geom/interpolate.js';
@@ -15,7 +16,10 @@ import { resampleClosedSpline, type ResampledCurve } from './curve/resample.js';
 import { placeGates } from './layout/gates.js';
 import { placeSpawns, type GridLayout } from './layout/spawn.js';
 import { limitSlopeCyclic, MAX_WIDTH_SLOPE, widthProfile } from './layout/widths.js';
+import { assessTrack } from './drive/assess.js';
+import type { DriveResult } from './drive/reference-drive.js';
 import { trackMetrics } from './metrics/metrics.js';
+import { vehicleMinRadiusM } from './params/drivability.js';
 import type { TurnSplit } from './params/feasibility.js';
 import type { TrackParams } from './params/types.js';
 import { loopNoise } from './random/noise.js';
@@ -37,13 +41,21 @@ const WIDTH_SLOPE_SHIPPED = 0.95 * MAX_WIDTH_SLOPE;
 /** Step of the thinned trace the coarse clearance filter runs on, metres. */
 const COARSE_STEP_M = 4;
 
-/** A candidate track (id still empty), or the stage that refused this attempt. */
-export type Candidate = { readonly track: Track; readonly stage: 'built' } | { readonly track: null; readonly stage: 'plan' | 'clearance' | 'min_radius' | 'gates' };
+/** A candidate track (id still empty) with its reference drive, or the stage that refused this attempt. */
+export type Candidate =
+  | { readonly track: Track; readonly drive: DriveResult; readonly stage: 'built' }
+  | { readonly track: null; readonly drive: null; readonly stage: 'plan' | 'clearance' | 'min_radius' | 'gates' };
 
-/** Builds attempt `attempt` of a request; every stage draws from its own sub-stream of (seed, attempt). */
-export function buildCandidate(p: TrackParams, split: TurnSplit, grid: GridLayout, attempt: number): Candidate {
+/**
+ * Builds attempt `attempt` of a request; every stage draws from its own sub-stream of (seed, attempt).
+ *
+ * @param p the parameters the geometry follows (minCornerRadiusM may be the raised floor, see
+ *   params/drivability.ts)
+ * @param echo the resolved parameters the track ships as `params` (as requested)
+ */
+export function buildCandidate(p: TrackParams, split: TurnSplit, grid: GridLayout, attempt: number, echo: TrackParams = p): Candidate {
   const plan = planLap(p, split, stream(p.seed, attempt, 'plan'), loopNoise(stream(p.seed, attempt, 'shape-noise'), SHAPE_NOISE_CYCLES));
-  if (plan === null) return { track: null, stage: 'plan' };
+  if (plan === null) return { track: null, drive: null, stage: 'plan' };
   const trace = tracePlan(plan, PLAN_STEP_M);
   const startS = chooseStartS(plan, trace, grid.lengthM);
   const width = widthProfile(p.widthM, p.noise, p.lengthM, stream(p.seed, attempt, 'width'));
@@ -57,23 +69,24 @@ export function buildCandidate(p: TrackParams, split: TurnSplit, grid: GridLayou
   for (let k = 0; k < m; k++) reach[k] = width(((coarse.s[k] - startS + plan.lengthM) % plan.lengthM) / plan.lengthM) / 2 + p.wall.thicknessM;
   const sag = (COARSE_STEP_M * COARSE_STEP_M) / (8 * p.minCornerRadiusM);
   const near = checkClearance({ points: coarse.points, s: coarse.s, lapLengthM: plan.lengthM, reach, marginM: Math.max(0, p.clearanceM - sag), minRadiusM: p.minCornerRadiusM, maxViolations: 1 });
-  if (near.violations.length > 0) return { track: null, stage: 'clearance' };
+  if (near.violations.length > 0) return { track: null, drive: null, stage: 'clearance' };
 
   const { control, traceS } = placeControlPoints(plan, trace, startS);
   const spline = cubicSplineClosed(control);
   const table = buildArcLengthTable(spline);
   const curve = resampleClosedSpline(spline, CENTERLINE_SPACING_M, table);
   const kLimit = 1 / p.minCornerRadiusM;
-  for (let i = 0; i < curve.n; i++) if (Math.abs(curve.curvature[i]) > kLimit) return { track: null, stage: 'min_radius' };
+  for (let i = 0; i < curve.n; i++) if (Math.abs(curve.curvature[i]) > kLimit) return { track: null, drive: null, stage: 'min_radius' };
 
-  const track = shipTrack(p, attempt, plan, trace, startS, control, traceS, table.cumulative, curve, width, grid);
-  if (track === null) return { track: null, stage: 'gates' };
-  return { track, stage: 'built' };
+  const shipped = shipTrack(p, echo, attempt, plan, trace, startS, control, traceS, table.cumulative, curve, width, grid);
+  if (shipped === null) return { track: null, drive: null, stage: 'gates' };
+  return { ...shipped, stage: 'built' };
 }
 
-// builds the shipped track (numbers rounded) with an empty id
+// builds the shipped track (numbers rounded) with an empty id, and its reference drive
 function shipTrack(
   p: TrackParams,
+  echo: TrackParams,
   attempt: number,
   plan: Plan,
   trace: Trace,
@@ -84,7 +97,7 @@ function shipTrack(
   curve: ResampledCurve,
   width: (u: number) => number,
   grid: GridLayout,
-): Track | null {
+): { track: Track; drive: DriveResult } | null {
   const n = curve.n;
   const L = curve.lengthM;
   const spacing = curve.spacingM;
@@ -155,29 +168,45 @@ function shipTrack(
     maxViolations: 1,
     measureBeyondM: CLEARANCE_MEASURE_M,
   });
-  const m = trackMetrics({ lengthM: L, spacingM: spacing, curvature, widthM, corners, minClearanceM: clearance.minGapM, gateCount: gates.length });
   const controlPoints: Point[] = [];
   for (let j = 0; j < control.length / 2; j++) controlPoints.push([control[2 * j], control[2 * j + 1]]);
+  const centerline = {
+    spacingM: r9(spacing),
+    lengthM: r3(L),
+    spline: { kind: 'cubic-closed', knots: 'chord-length', controlPoints },
+    points,
+    s,
+    headingDeg,
+    curvature: Array.from(curvature),
+    halfWidthLeftM: Array.from(half),
+    halfWidthRightM: Array.from(half),
+  } as const;
+  const walls = { heightM: p.wall.heightM, thicknessM: p.wall.thicknessM, left, right };
+  // speed profile, reference drive and sensors on the numbers that ship
+  const assessment = assessTrack({ centerline, walls, gates }, p.vehicle, p.sensors);
+  const m = trackMetrics({
+    lengthM: L,
+    spacingM: spacing,
+    curvature,
+    widthM,
+    corners,
+    minClearanceM: clearance.minGapM,
+    gateCount: gates.length,
+    vehicle: p.vehicle,
+    vehicleMinRadiusM: vehicleMinRadiusM(p.vehicle),
+    cornerRadiusFloorM: p.minCornerRadiusM,
+    assessment,
+  });
 
-  return {
+  const track: Track = {
     format: TRACK_FORMAT,
     id: '',
     seed: p.seed,
     generatorVersion: GENERATOR_VERSION,
-    params: p,
+    params: echo,
     attempts: attempt + 1,
-    centerline: {
-      spacingM: r9(spacing),
-      lengthM: r3(L),
-      spline: { kind: 'cubic-closed', knots: 'chord-length', controlPoints },
-      points,
-      s,
-      headingDeg,
-      curvature: Array.from(curvature),
-      halfWidthLeftM: Array.from(half),
-      halfWidthRightM: Array.from(half),
-    },
-    walls: { heightM: p.wall.heightM, thicknessM: p.wall.thicknessM, left, right },
+    centerline,
+    walls,
     gates,
     spawns,
     corners,
@@ -192,9 +221,22 @@ function shipTrack(
       minClearanceM: r3(m.minClearanceM),
       cornerCount: m.cornerCount,
       gateCount: m.gateCount,
+      vehicleMinRadiusM: r3(m.vehicleMinRadiusM),
+      cornerRadiusFloorM: r3(m.cornerRadiusFloorM),
+      referenceLapTimeS: r3(m.referenceLapTimeS),
+      averageSpeedMps: r3(m.averageSpeedMps),
+      minSpeedMps: r3(m.minSpeedMps),
+      maxSpeedMps: r3(m.maxSpeedMps),
+      brakingTimeS: r3(m.brakingTimeS),
+      driveLapTimeS: r3(m.driveLapTimeS),
+      maxLateralDeviationM: r3(m.maxLateralDeviationM),
+      minWallMarginM: r3(m.minWallMarginM),
+      sensorCoverage: r6(m.sensorCoverage),
+      sensorGateCoverage: r6(m.sensorGateCoverage),
       difficulty: r3(m.difficulty),
     },
   };
+  return { track, drive: assessment.drive };
 }
 
 // corners in lap order from the start line, measured on the shipped curvature

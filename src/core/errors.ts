@@ -59,6 +59,9 @@ export const INFEASIBLE_REASONS = [
   'gate_spacing_vs_length',
   'spawns_too_long',
   'spawns_too_wide',
+  'vehicle_too_wide',
+  'vehicle_cannot_turn',
+  'reference_drive_failed',
   'no_valid_layout',
 ] as const;
 

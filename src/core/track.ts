@@ -101,7 +101,35 @@ export interface TrackMetrics {
   readonly minClearanceM: number;
   readonly cornerCount: number;
   readonly gateCount: number;
-  /** Difficulty figure, 0..10 (README "Difficulty"). */
+  /**
+   * Tightest centerline radius the vehicle (params.vehicle) can follow, metres: the kinematic
+   * bicycle's turning radius at full lock, wheelbase / tan(maxSteer), plus half its width.
+   */
+  readonly vehicleMinRadiusM: number;
+  /**
+   * Radius floor the generator kept, metres: params.minCornerRadiusM, raised to
+   * vehicleMinRadiusM when that is larger and params.drivability is 'avoid'.
+   */
+  readonly cornerRadiusFloorM: number;
+  /** Lap time of the friction-limited speed profile of params.vehicle, seconds (one flying lap). */
+  readonly referenceLapTimeS: number;
+  /** Lap length over referenceLapTimeS, and the profile's lowest and highest speeds, m/s. */
+  readonly averageSpeedMps: number;
+  readonly minSpeedMps: number;
+  readonly maxSpeedMps: number;
+  /** Time of the profile's lap spent braking, seconds. */
+  readonly brakingTimeS: number;
+  /** Lap time of the reference drive (pure pursuit on the kinematic bicycle), seconds. */
+  readonly driveLapTimeS: number;
+  /** Largest distance of the reference drive's rear axle from the centerline, metres. */
+  readonly maxLateralDeviationM: number;
+  /** Smallest distance between the reference drive's footprint and a wall face, metres. */
+  readonly minWallMarginM: number;
+  /** Share of sensor poses (every 10 m) where the rays see a wall within reach on both sides, 0..1. */
+  readonly sensorCoverage: number;
+  /** Share of sensor poses where a ray meets a gate within reach, 0..1. */
+  readonly sensorGateCoverage: number;
+  /** Difficulty figure, 0..10 (docs/drivability.md, "Difficulty"). */
   readonly difficulty: number;
 }
 

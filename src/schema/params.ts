@@ -10,7 +10,7 @@
  *   tolerant of extra fields so tracks from later versions still parse.
  */
 import { z } from 'zod';
-import { DEFAULTS, LIMITS, SEED_MAX, SEED_STRING_MAX_CHARS } from '../core/index.js';
+import { DEFAULTS, DRIVABILITY_MODES, LIMITS, SEED_MAX, SEED_STRING_MAX_CHARS } from '../core/index.js';
 import type { Seed, TrackParams, TrackRequest } from '../core/index.js';
 import { type Bounds, type ErrorFn, expectedError, objectError, rangeError } from './messages.js';
 
@@ -25,6 +25,8 @@ export const seedSchema = seed();
 const METRES = 'm';
 const DEGREES = 'degrees';
 const NO_UNIT = '';
+const MPS = 'm/s';
+const MPS2 = 'm/s²';
 
 // documentation of each field: meaning, unit, allowed range and default, in one sentence each
 const DOC = {
@@ -49,6 +51,20 @@ const DOC = {
   car: `Footprint of the car used to place non-overlapping start poses, metres. Default {lengthM: ${DEFAULTS.car.lengthM}, widthM: ${DEFAULTS.car.widthM}}.`,
   carLengthM: doc('Car length.', METRES, LIMITS.carLengthM, DEFAULTS.car.lengthM),
   carWidthM: doc('Car width.', METRES, LIMITS.carWidthM, DEFAULTS.car.widthM),
+  vehicle: `The vehicle the track is checked for (docs/drivability.md): its tightest turn (wheelbase / tan(maxSteer) + width / 2) bounds the corners, its grip and power give the speed profile, reference lap time and difficulty, and the reference drive laps the track with its footprint. Width and length default to the car's footprint.`,
+  wheelbaseM: doc('Distance between the axles.', METRES, LIMITS.wheelbaseM, DEFAULTS.vehicle.wheelbaseM),
+  vehicleWidthM: doc('Vehicle width (the footprint the reference drive keeps off the walls).', METRES, LIMITS.carWidthM, 'car.widthM'),
+  vehicleLengthM: doc('Vehicle length (the footprint is centred midway between the axles).', METRES, LIMITS.carLengthM, 'car.lengthM'),
+  maxSteerDeg: doc('Steering lock: the largest front wheel angle.', DEGREES, LIMITS.maxSteerDeg, DEFAULTS.vehicle.maxSteerDeg),
+  mu: doc('Tyre-road friction coefficient: cornering speed is at most sqrt(mu * g / |curvature|).', NO_UNIT, LIMITS.mu, DEFAULTS.vehicle.mu),
+  maxAccelMps2: doc('Largest forward acceleration (also capped at mu * g).', MPS2, LIMITS.maxAccelMps2, DEFAULTS.vehicle.maxAccelMps2),
+  maxBrakeMps2: doc('Largest braking deceleration (also capped at mu * g).', MPS2, LIMITS.maxBrakeMps2, DEFAULTS.vehicle.maxBrakeMps2),
+  topSpeedMps: doc('Top speed.', MPS, LIMITS.topSpeedMps, DEFAULTS.vehicle.topSpeedMps),
+  drivability: `What to do when the vehicle cannot follow the request: "avoid" (default) keeps every corner at least as wide as the vehicle can turn (raising minCornerRadiusM where needed, said in metrics.cornerRadiusFloorM) and retries layouts the reference drive cannot lap; "refuse" answers 422 instead (reason vehicle_cannot_turn or reference_drive_failed, with the place). Default: ${DEFAULTS.drivability}.`,
+  sensors: `Range sensors of the sensor check: rays spread evenly over spreadDeg about the heading, reaching lengthM, cast from the centerline every 10 m; metrics.sensorCoverage is the share of those poses where a wall is within reach on both sides. Default {count: ${DEFAULTS.sensors.count}, spreadDeg: ${DEFAULTS.sensors.spreadDeg}, lengthM: ${DEFAULTS.sensors.lengthM}}.`,
+  sensorCount: doc('Number of rays.', NO_UNIT, LIMITS.sensorCount, DEFAULTS.sensors.count),
+  sensorSpreadDeg: doc('Angle between the outermost rays.', DEGREES, LIMITS.sensorSpreadDeg, DEFAULTS.sensors.spreadDeg),
+  sensorLengthM: doc('Reach of every ray.', METRES, LIMITS.sensorLengthM, DEFAULTS.sensors.lengthM),
 } as const;
 
 /**
@@ -87,6 +103,32 @@ export const trackRequestSchema = strict(
     )
       .optional()
       .meta(meta(DOC.car, DEFAULTS.car)),
+    vehicle: strict(
+      {
+        wheelbaseM: bounded(LIMITS.wheelbaseM, METRES).optional().meta(meta(DOC.wheelbaseM, DEFAULTS.vehicle.wheelbaseM)),
+        widthM: bounded(LIMITS.carWidthM, METRES).optional().meta({ description: DOC.vehicleWidthM }),
+        lengthM: bounded(LIMITS.carLengthM, METRES).optional().meta({ description: DOC.vehicleLengthM }),
+        maxSteerDeg: bounded(LIMITS.maxSteerDeg, DEGREES).optional().meta(meta(DOC.maxSteerDeg, DEFAULTS.vehicle.maxSteerDeg)),
+        mu: bounded(LIMITS.mu, NO_UNIT).optional().meta(meta(DOC.mu, DEFAULTS.vehicle.mu)),
+        maxAccelMps2: bounded(LIMITS.maxAccelMps2, MPS2).optional().meta(meta(DOC.maxAccelMps2, DEFAULTS.vehicle.maxAccelMps2)),
+        maxBrakeMps2: bounded(LIMITS.maxBrakeMps2, MPS2).optional().meta(meta(DOC.maxBrakeMps2, DEFAULTS.vehicle.maxBrakeMps2)),
+        topSpeedMps: bounded(LIMITS.topSpeedMps, MPS).optional().meta(meta(DOC.topSpeedMps, DEFAULTS.vehicle.topSpeedMps)),
+      },
+      'an object {wheelbaseM, widthM, lengthM, maxSteerDeg, mu, maxAccelMps2, maxBrakeMps2, topSpeedMps}',
+    )
+      .optional()
+      .meta(meta(DOC.vehicle, DEFAULTS.vehicle)),
+    drivability: drivability().optional().meta(meta(DOC.drivability, DEFAULTS.drivability)),
+    sensors: strict(
+      {
+        count: bounded(LIMITS.sensorCount, NO_UNIT, true).optional().meta(meta(DOC.sensorCount, DEFAULTS.sensors.count)),
+        spreadDeg: bounded(LIMITS.sensorSpreadDeg, DEGREES).optional().meta(meta(DOC.sensorSpreadDeg, DEFAULTS.sensors.spreadDeg)),
+        lengthM: bounded(LIMITS.sensorLengthM, METRES).optional().meta(meta(DOC.sensorLengthM, DEFAULTS.sensors.lengthM)),
+      },
+      'an object {count, spreadDeg, lengthM}',
+    )
+      .optional()
+      .meta(meta(DOC.sensors, DEFAULTS.sensors)),
   },
   'an object of track parameters',
 ).meta({ description: 'Parameters of one track; every field is optional and takes its default when left out. Lengths in metres, angles in degrees.' }) satisfies z.ZodType<TrackRequestBody>;
@@ -127,6 +169,32 @@ export const trackParamsSchema = z
           { error: expectedError('an object {lengthM, widthM} in metres') },
         )
         .meta({ description: DOC.car }),
+      vehicle: z
+        .looseObject(
+          {
+            wheelbaseM: bounded(LIMITS.wheelbaseM, METRES).meta({ description: DOC.wheelbaseM }),
+            widthM: bounded(LIMITS.carWidthM, METRES).meta({ description: DOC.vehicleWidthM }),
+            lengthM: bounded(LIMITS.carLengthM, METRES).meta({ description: DOC.vehicleLengthM }),
+            maxSteerDeg: bounded(LIMITS.maxSteerDeg, DEGREES).meta({ description: DOC.maxSteerDeg }),
+            mu: bounded(LIMITS.mu, NO_UNIT).meta({ description: DOC.mu }),
+            maxAccelMps2: bounded(LIMITS.maxAccelMps2, MPS2).meta({ description: DOC.maxAccelMps2 }),
+            maxBrakeMps2: bounded(LIMITS.maxBrakeMps2, MPS2).meta({ description: DOC.maxBrakeMps2 }),
+            topSpeedMps: bounded(LIMITS.topSpeedMps, MPS).meta({ description: DOC.topSpeedMps }),
+          },
+          { error: expectedError('an object {wheelbaseM, widthM, lengthM, maxSteerDeg, mu, maxAccelMps2, maxBrakeMps2, topSpeedMps}') },
+        )
+        .meta({ description: DOC.vehicle }),
+      drivability: drivability().meta({ description: DOC.drivability }),
+      sensors: z
+        .looseObject(
+          {
+            count: bounded(LIMITS.sensorCount, NO_UNIT, true).meta({ description: DOC.sensorCount }),
+            spreadDeg: bounded(LIMITS.sensorSpreadDeg, DEGREES).meta({ description: DOC.sensorSpreadDeg }),
+            lengthM: bounded(LIMITS.sensorLengthM, METRES).meta({ description: DOC.sensorLengthM }),
+          },
+          { error: expectedError('an object {count, spreadDeg, lengthM}') },
+        )
+        .meta({ description: DOC.sensors }),
     },
     { error: expectedError('an object of resolved track parameters') },
   )
@@ -140,6 +208,11 @@ function strict<S extends z.core.$ZodLooseShape>(shape: S, what: string) {
 function seed() {
   const error: ErrorFn = expectedError(SEED_WHAT);
   return z.union([z.int({ error }).min(0, { error }).max(SEED_MAX, { error }), z.string({ error }).min(1, { error }).max(SEED_STRING_MAX_CHARS, { error })], { error });
+}
+
+function drivability() {
+  const error = expectedError(DRIVABILITY_MODES.map((m) => `"${m}"`).join(' or '));
+  return z.enum(DRIVABILITY_MODES, { error });
 }
 
 function bounded(bounds: Bounds, unit: string, integer = false) {
@@ -175,7 +248,7 @@ function minAboveMax(issue: z.core.$ZodRawIssue): string {
 }
 
 function doc(meaning: string, unit: string, bounds: Bounds, dflt: number | string): string {
-  const u = unit === METRES ? 'metres' : unit || 'none';
+  const u = unit === METRES ? 'metres' : unit === MPS ? 'metres per second' : unit === MPS2 ? 'metres per second squared' : unit || 'none';
   return `${meaning} Unit: ${u}. Allowed: ${bounds.min} to ${bounds.max}. Default: ${dflt}.`;
 }
 

@@ -73,7 +73,7 @@ describe('help and version', () => {
     const generate = await run(['generate', '--help']);
     expect(generate.code).toBe(0);
     expect(generate.stdout).toMatch(/^Usage: lapwright generate /);
-    expect(generate.stdout).toContain('  widthM.min          Narrowest road width. Unit: metres. Allowed: 3 to 40. Default: 10.');
+    expect(generate.stdout).toContain('  widthM.min            Narrowest road width. Unit: metres. Allowed: 3 to 40. Default: 10.');
     expect((await run(['help', 'generate'])).stdout).toBe(generate.stdout);
     const validate = await run(['validate', '-h']);
     expect(validate.code).toBe(0);
@@ -124,7 +124,7 @@ describe('exit 2: malformed input, one line per problem on stderr', () => {
         "  widthM.min: expected a number from 3 to 40 m, got 2",
         "  gateSpacingM: min 30 m is greater than max 20 m",
         "  wall.colour: unknown field "colour"; allowed fields: heightM, thicknessM",
-        "  laps: unknown field "laps"; allowed fields: seed, lengthM, widthM, curvatureBudgetDeg, turnBalance, cornerCount, minCornerRadiusM, noise, gateSpacingM, spawnSlots, wall, clearanceM, car",
+        "  laps: unknown field "laps"; allowed fields: seed, lengthM, widthM, curvatureBudgetDeg, turnBalance, cornerCount, minCornerRadiusM, noise, gateSpacingM, spawnSlots, wall, clearanceM, car, vehicle, drivability, sensors",
         "",
       ]
     `);

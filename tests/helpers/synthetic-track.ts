@@ -110,6 +110,9 @@ export function stadiumTrack(options: StadiumOptions = {}): Track {
     wall: { heightM: 1.2, thicknessM: 0.5 },
     clearanceM: 1,
     car: { lengthM: 4.5, widthM: 2 },
+    vehicle: { wheelbaseM: 2.5, widthM: 2, lengthM: 4.5, maxSteerDeg: 30, mu: 0.9, maxAccelMps2: 6, maxBrakeMps2: 8, topSpeedMps: 60 },
+    drivability: 'avoid',
+    sensors: { count: 9, spreadDeg: 180, lengthM: 30 },
   };
 
   const gates = placeGates(L, R, params, { s, left, right });
@@ -148,6 +151,19 @@ export function stadiumTrack(options: StadiumOptions = {}): Track {
       minClearanceM: r3(2 * R - 2 * (6 + 0.5) - 1),
       cornerCount: 2,
       gateCount: gates.length,
+      // drivability figures are not made for the synthetic track (the checker does not read them)
+      vehicleMinRadiusM: 0,
+      cornerRadiusFloorM: R,
+      referenceLapTimeS: 0,
+      averageSpeedMps: 0,
+      minSpeedMps: 0,
+      maxSpeedMps: 0,
+      brakingTimeS: 0,
+      driveLapTimeS: 0,
+      maxLateralDeviationM: 0,
+      minWallMarginM: 0,
+      sensorCoverage: 0,
+      sensorGateCoverage: 0,
       difficulty: 0,
     },
   };

@@ -188,7 +188,7 @@ describe('trackRequestSchema: unknown fields and wrong types', () => {
           "path": "car.mass",
         },
         {
-          "message": "unknown field "lenghtM"; allowed fields: seed, lengthM, widthM, curvatureBudgetDeg, turnBalance, cornerCount, minCornerRadiusM, noise, gateSpacingM, spawnSlots, wall, clearanceM, car",
+          "message": "unknown field "lenghtM"; allowed fields: seed, lengthM, widthM, curvatureBudgetDeg, turnBalance, cornerCount, minCornerRadiusM, noise, gateSpacingM, spawnSlots, wall, clearanceM, car, vehicle, drivability, sensors",
           "path": "lenghtM",
         },
       ]

@@ -21,7 +21,19 @@ export const LIMITS = {
   clearanceM: { min: 0, max: 20 },
   carLengthM: { min: 1, max: 20 },
   carWidthM: { min: 0.5, max: 5 },
+  wheelbaseM: { min: 0.5, max: 10 },
+  maxSteerDeg: { min: 5, max: 60 },
+  mu: { min: 0.1, max: 3 },
+  maxAccelMps2: { min: 0.5, max: 30 },
+  maxBrakeMps2: { min: 0.5, max: 50 },
+  topSpeedMps: { min: 5, max: 150 },
+  sensorCount: { min: 1, max: 64 },
+  sensorSpreadDeg: { min: 0, max: 360 },
+  sensorLengthM: { min: 1, max: 500 },
 } as const;
+
+/** Values of `drivability`, the default first. */
+export const DRIVABILITY_MODES = ['avoid', 'refuse'] as const;
 
 export const DEFAULTS = {
   lengthM: 1500,
@@ -37,6 +49,13 @@ export const DEFAULTS = {
   clearanceM: 1,
   // a 2 m x 4.5 m car unless told otherwise (common practice, no source)
   car: { lengthM: 4.5, widthM: 2 },
+  // a small racing car of our own (common practice, no source); width and length default to the
+  // car's footprint above, so one car both starts the lap and drives it; mu 0.9: racing tyres on
+  // dry asphalt (shared/REFERENCES.md)
+  vehicle: { wheelbaseM: 2.5, maxSteerDeg: 30, mu: 0.9, maxAccelMps2: 6, maxBrakeMps2: 8, topSpeedMps: 60 },
+  drivability: 'avoid',
+  // nine rays over a half circle reaching 30 m: walls of a 40 m road seen from its middle
+  sensors: { count: 9, spreadDeg: 180, lengthM: 30 },
 } as const;
 
 /**

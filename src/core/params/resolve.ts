@@ -7,7 +7,8 @@ import type { RangeM, TrackParams, TrackRequest } from './types.js';
  * guards against values a shell should never pass.
  *
  * A half-given range keeps the given bound and takes the default for the other, widened so that
- * min <= max (`widthM: {min: 16}` becomes 16..16).
+ * min <= max (`widthM: {min: 16}` becomes 16..16). The vehicle's width and length default to the
+ * car's footprint (`car`, which places the start poses), so one car starts and drives the lap.
  *
  * @param request parameters as sent (metres, degrees); `seed` must be present
  * @returns every parameter resolved, in canonical key order
@@ -19,6 +20,11 @@ export function resolveParams(request: TrackRequest): TrackParams {
   const lengthM = request.lengthM ?? DEFAULTS.lengthM;
   const curvatureBudgetDeg = request.curvatureBudgetDeg ?? DEFAULTS.curvatureBudgetDeg;
   const turnBalance = request.turnBalance ?? DEFAULTS.turnBalance;
+  const car = {
+    lengthM: request.car?.lengthM ?? DEFAULTS.car.lengthM,
+    widthM: request.car?.widthM ?? DEFAULTS.car.widthM,
+  };
+  const v = request.vehicle;
   return {
     seed: request.seed,
     lengthM,
@@ -35,9 +41,22 @@ export function resolveParams(request: TrackRequest): TrackParams {
       thicknessM: request.wall?.thicknessM ?? DEFAULTS.wall.thicknessM,
     },
     clearanceM: request.clearanceM ?? DEFAULTS.clearanceM,
-    car: {
-      lengthM: request.car?.lengthM ?? DEFAULTS.car.lengthM,
-      widthM: request.car?.widthM ?? DEFAULTS.car.widthM,
+    car,
+    vehicle: {
+      wheelbaseM: v?.wheelbaseM ?? DEFAULTS.vehicle.wheelbaseM,
+      widthM: v?.widthM ?? car.widthM,
+      lengthM: v?.lengthM ?? car.lengthM,
+      maxSteerDeg: v?.maxSteerDeg ?? DEFAULTS.vehicle.maxSteerDeg,
+      mu: v?.mu ?? DEFAULTS.vehicle.mu,
+      maxAccelMps2: v?.maxAccelMps2 ?? DEFAULTS.vehicle.maxAccelMps2,
+      maxBrakeMps2: v?.maxBrakeMps2 ?? DEFAULTS.vehicle.maxBrakeMps2,
+      topSpeedMps: v?.topSpeedMps ?? DEFAULTS.vehicle.topSpeedMps,
+    },
+    drivability: request.drivability ?? DEFAULTS.drivability,
+    sensors: {
+      count: request.sensors?.count ?? DEFAULTS.sensors.count,
+      spreadDeg: request.sensors?.spreadDeg ?? DEFAULTS.sensors.spreadDeg,
+      lengthM: request.sensors?.lengthM ?? DEFAULTS.sensors.lengthM,
     },
   };
 }

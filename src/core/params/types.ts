@@ -24,6 +24,41 @@ export interface CarSpec {
   readonly widthM: number;
 }
 
+/**
+ * The vehicle whose drivability a track is checked for (src/core/drive): size, steering and
+ * grip. Units: metres, degrees, m/s and m/s².
+ */
+export interface VehicleSpec {
+  /** Distance between the axles, metres. */
+  readonly wheelbaseM: number;
+  /** Footprint width and length, metres (the footprint is centred midway between the axles). */
+  readonly widthM: number;
+  readonly lengthM: number;
+  /** Steering lock: the largest front wheel angle, degrees. */
+  readonly maxSteerDeg: number;
+  /** Tyre–road friction coefficient. */
+  readonly mu: number;
+  /** Largest forward acceleration and braking deceleration, m/s² (grip caps both at mu·g). */
+  readonly maxAccelMps2: number;
+  readonly maxBrakeMps2: number;
+  /** Top speed, m/s. */
+  readonly topSpeedMps: number;
+}
+
+/** A fan of range sensors for the sensor check: ray count, spread between the outermost rays (degrees) and reach (metres). */
+export interface SensorSpec {
+  readonly count: number;
+  readonly spreadDeg: number;
+  readonly lengthM: number;
+}
+
+/**
+ * What the generator does with corners tighter than the vehicle can follow and with layouts the
+ * reference drive cannot lap: 'avoid' raises the radius floor and retries the layout; 'refuse'
+ * answers infeasible, with the reason and the place.
+ */
+export type Drivability = 'refuse' | 'avoid';
+
 /** Every parameter resolved: defaults filled, derived values computed. Echoed as `track.params`. */
 export interface TrackParams {
   readonly seed: Seed;
@@ -39,6 +74,9 @@ export interface TrackParams {
   readonly wall: WallSpec;
   readonly clearanceM: number;
   readonly car: CarSpec;
+  readonly vehicle: VehicleSpec;
+  readonly drivability: Drivability;
+  readonly sensors: SensorSpec;
 }
 
 /** What a caller may send: every field optional; `seed` is required by the core itself. */
@@ -56,4 +94,7 @@ export interface TrackRequest {
   readonly wall?: Partial<WallSpec>;
   readonly clearanceM?: number;
   readonly car?: Partial<CarSpec>;
+  readonly vehicle?: Partial<VehicleSpec>;
+  readonly drivability?: Drivability;
+  readonly sensors?: Partial<SensorSpec>;
 }

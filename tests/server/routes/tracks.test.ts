@@ -239,7 +239,7 @@ describe('POST /v1/tracks', () => {
             "path": "wall.colour",
           },
           {
-            "message": "unknown field "laps"; allowed fields: seed, lengthM, widthM, curvatureBudgetDeg, turnBalance, cornerCount, minCornerRadiusM, noise, gateSpacingM, spawnSlots, wall, clearanceM, car",
+            "message": "unknown field "laps"; allowed fields: seed, lengthM, widthM, curvatureBudgetDeg, turnBalance, cornerCount, minCornerRadiusM, noise, gateSpacingM, spawnSlots, wall, clearanceM, car, vehicle, drivability, sensors",
             "path": "laps",
           },
         ],
@@ -408,7 +408,7 @@ describe('GET /v1/tracks/{seed}', () => {
             "path": "noise",
           },
           {
-            "message": "unknown field "laps"; allowed fields: seed, lengthM, widthM, curvatureBudgetDeg, turnBalance, cornerCount, minCornerRadiusM, noise, gateSpacingM, spawnSlots, wall, clearanceM, car",
+            "message": "unknown field "laps"; allowed fields: seed, lengthM, widthM, curvatureBudgetDeg, turnBalance, cornerCount, minCornerRadiusM, noise, gateSpacingM, spawnSlots, wall, clearanceM, car, vehicle, drivability, sensors",
             "path": "laps",
           },
         ],
