@@ -1,11 +1,17 @@
 // The generator's benchmark: npm run bench. Seeded requests, warm-up first, then min, median and
 // mean ± std per track (times are wall-clock on this machine, one core); mean attempts and the
 // success rate of realistic profiles; generation time over JSON.stringify time of the same
-// track; and variety, the median pairwise turning-function distance (Arkin et al. 1991) of 50
-// tracks drawn for the median real permanent circuit (4.6 km, 1570°, 15 corners, 40% minority).
+// track; the drivability checks' cost per track (speed profile, reference drive, sensor check),
+// absolute and as a share of generation time; and variety, the median pairwise turning-function
+// distance (Arkin et al. 1991) of 50 tracks drawn for the median real permanent circuit (4.6 km,
+// 1570°, 15 corners, 40% minority).
 
 import { writeFileSync } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
+import { buildRoadStrip } from '../../src/core/drive/road-strip.js';
+import { referenceDrive } from '../../src/core/drive/reference-drive.js';
+import { sensorCoverage } from '../../src/core/drive/sensors.js';
+import { speedProfile, STANDARD_GRAVITY_MPS2 } from '../../src/core/drive/speed-profile.js';
 import { generateTrack, MAX_ATTEMPTS } from '../../src/core/generate.js';
 import { isInfeasibleError } from '../../src/core/errors.js';
 import { turningDistanceBetween, turningSignature } from '../../src/core/metrics/turning-distance.js';
@@ -57,6 +63,39 @@ function timeTracks(base: Omit<TrackRequest, 'seed'>, seeds: number, warmup: num
   return { gen: stats(gen), json: stats(json), validate: stats(check), attempts: attempts / seeds, tracks };
 }
 
+// the drivability checks of each track again, timed apart: what the generator spends on them
+// once per built layout (the checker's rejects aside)
+function timeDrivability(tracks: Track[], rounds: number): { profile: Stats; drive: Stats; sensors: Stats } {
+  const profile: number[] = [], drive: number[] = [], sensors: number[] = [];
+  for (let round = 0; round < rounds; round++) {
+    for (const t of tracks) {
+      const v = t.params.vehicle, c = t.centerline;
+      let t0 = performance.now();
+      const strip = buildRoadStrip(t);
+      const p = speedProfile(c.curvature, c.spacingM, v);
+      profile.push(performance.now() - t0);
+      const grip = v.mu * STANDARD_GRAVITY_MPS2;
+      t0 = performance.now();
+      const d = referenceDrive(strip, p.speedMps, (c.headingDeg[0] * Math.PI) / 180, { wheelbaseM: v.wheelbaseM, widthM: v.widthM, lengthM: v.lengthM, maxSteerRad: (v.maxSteerDeg * Math.PI) / 180, accelMps2: Math.min(v.maxAccelMps2, grip), brakeMps2: Math.min(v.maxBrakeMps2, grip) }, p.lapTimeS);
+      drive.push(performance.now() - t0);
+      t0 = performance.now();
+      const cov = sensorCoverage(strip, Float64Array.from(c.headingDeg, (h) => (h * Math.PI) / 180), t.gates, t.params.sensors);
+      sensors.push(performance.now() - t0);
+      if (!d.completed || !(cov.poses > 0)) throw new Error('a shipped track failed its drive');
+    }
+  }
+  return { profile: stats(profile), drive: stats(drive), sensors: stats(sensors) };
+}
+
+function sayDrivability(name: string, gen: Stats, tracks: Track[]): void {
+  const d = timeDrivability(tracks, 3);
+  const share = (s: Stats) => `${((100 * s.median) / gen.median).toFixed(0)}%`;
+  const total = d.profile.median + d.drive.median + d.sensors.median;
+  // minima are the figures least moved by other work on the machine
+  const totalMin = d.profile.min + d.drive.min + d.sensors.min;
+  say(`  ${name} drivability checks per track (share of the generation median, which includes them): reference drive ${fmt(d.drive)} (${share(d.drive)}); sensors ${d.sensors.median.toFixed(2)} ms (${share(d.sensors)}); speed profile and strip ${d.profile.median.toFixed(2)} ms (${share(d.profile)}); together ${total.toFixed(2)} ms, ${((100 * total) / gen.median).toFixed(0)}% of generation (minima: ${totalMin.toFixed(2)} of ${gen.min.toFixed(2)} ms, ${((100 * totalMin) / gen.min).toFixed(0)}%)`);
+}
+
 const lines: string[] = [];
 const say = (s: string) => {
   lines.push(s);
@@ -69,9 +108,11 @@ const def = timeTracks({}, quick ? 20 : 100, 10);
 say(`default request (1.5 km, 900°, 9 corners): ${fmt(def.gen)}; mean attempts ${def.attempts.toFixed(2)}`);
 say(`  of which the checker alone: ${fmt(def.validate)}`);
 say(`  JSON.stringify of the same track: ${fmt(def.json)}; ratio generate / stringify (medians) ${(def.gen.median / def.json.median).toFixed(1)}`);
+sayDrivability('default:', def.gen, def.tracks);
 
 const long = timeTracks({ lengthM: 8000, curvatureBudgetDeg: 3000, cornerCount: 30 }, quick ? 5 : 20, 2);
 say(`8 km, 3000°, 30 corners: ${fmt(long.gen)}; mean attempts ${long.attempts.toFixed(2)}; ratio to stringify ${(long.gen.median / long.json.median).toFixed(1)}`);
+sayDrivability('8 km:', long.gen, long.tracks);
 
 // success and attempts of realistic profiles
 const profiles: Record<string, Omit<TrackRequest, 'seed'>> = {
@@ -87,10 +128,13 @@ const perProfile = quick ? 10 : 100;
 for (const [name, base] of Object.entries(profiles)) {
   let ok = 0, attempts = 0;
   const times: number[] = [];
+  const made: Track[] = [];
   for (let seed = 0; seed < perProfile; seed++) {
     const t0 = performance.now();
     try {
-      attempts += generateTrack({ ...base, seed }).attempts;
+      const t = generateTrack({ ...base, seed });
+      attempts += t.attempts;
+      if (made.length < 20) made.push(t);
       ok++;
     } catch (e) {
       if (!isInfeasibleError(e)) throw e;
@@ -98,7 +142,9 @@ for (const [name, base] of Object.entries(profiles)) {
     }
     times.push(performance.now() - t0);
   }
-  say(`${name}: ${ok}/${perProfile} succeed, mean attempts ${(attempts / perProfile).toFixed(2)}, ${fmt(stats(times))}`);
+  const gen = stats(times);
+  say(`${name}: ${ok}/${perProfile} succeed, mean attempts ${(attempts / perProfile).toFixed(2)}, ${fmt(gen)}`);
+  if (name.startsWith('kart') || name.startsWith('circuit')) sayDrivability(`${name.split(',')[0]}:`, gen, made);
 }
 
 // variety
