@@ -3,6 +3,9 @@
  */
 export { generateTrack, generateTrackJson } from './generate.js';
 export { validateTrack } from './validate/index.js';
+export { assessTrack } from './drive/assess.js';
+export type { Assessment } from './drive/assess.js';
+export { vehicleMinRadiusM } from './params/drivability.js';
 export { resolveParams, deriveCornerCount } from './params/resolve.js';
 export { checkFeasibility, splitTurning } from './params/feasibility.js';
 export { DEFAULTS, DRIVABILITY_MODES, LIMITS, SEED_MAX, SEED_STRING_MAX_CHARS } from './params/defaults.js';

@@ -10,6 +10,7 @@ import { cornerRadiusFloorM } from '../../../src/core/params/drivability.js';
 import { checkFeasibility, splitTurning } from '../../../src/core/params/feasibility.js';
 import { resolveParams } from '../../../src/core/params/resolve.js';
 import type { TrackRequest } from '../../../src/core/params/types.js';
+import * as lapwright from '../../../src/index.js';
 import { validateTrack } from '../../../src/core/validate/index.js';
 import { stadiumTrack } from '../../helpers/synthetic-track.js';
 
@@ -40,9 +41,10 @@ describe('assessTrack', () => {
     });
   }
 
-  it('what ships can be made again from the track alone: the metrics equal a fresh assessment of the JSON', () => {
+  it('what ships can be made again from the track alone: the metrics equal a fresh assessment of the JSON (through the public entry)', () => {
     const t = JSON.parse(JSON.stringify(generateTrack({ seed: 5, lengthM: 900, cornerCount: 7 })));
-    const a = assessTrack(t, t.params.vehicle, t.params.sensors);
+    const a = lapwright.assessTrack(t, t.params.vehicle, t.params.sensors);
+    expect(lapwright.vehicleMinRadiusM(t.params.vehicle)).toBeCloseTo(t.metrics.vehicleMinRadiusM, 3);
     const r3 = (x: number) => Math.round(x * 1e3) / 1e3;
     expect(r3(a.profile.lapTimeS)).toBe(t.metrics.referenceLapTimeS);
     expect(r3(a.drive.lapTimeS)).toBe(t.metrics.driveLapTimeS);
