@@ -13,7 +13,6 @@
  * parameters, a busy server) is an ordinary error answer (422, 503); a later failure ends the
  * stream with an error line {"error": {statusCode, code, error, message, ...}}.
  */
-import { once } from 'node:events';
 import { randomInt } from 'node:crypto';
 import type { ServerResponse } from 'node:http';
 import type { FastifyPluginAsync } from 'fastify';
@@ -207,7 +206,17 @@ class HeldCount {
 // one line: write, then wait until the socket takes more (or the client is gone)
 async function writeLine(res: ServerResponse, line: Uint8Array, held: HeldCount, isGone: () => boolean): Promise<void> {
   const ok = res.write(line, () => held.flushed());
-  if (!ok && !isGone()) await Promise.race([once(res, 'drain'), once(res, 'close')]);
+  if (ok || isGone()) return;
+  // listeners removed as soon as either fires: a batch waits once per line
+  await new Promise<void>((resolve) => {
+    const done = (): void => {
+      res.off('drain', done);
+      res.off('close', done);
+      resolve();
+    };
+    res.on('drain', done);
+    res.on('close', done);
+  });
 }
 
 /** The OpenAPI tag of the training-farm routes. */
