@@ -81,6 +81,7 @@ export function castRay(strip: RoadStrip, j: number, px: number, py: number, dx:
     if (exit === 0 || exit === 2) {
       out.wallM = Math.max(0, best);
       out.wallSide = exit === 2 ? 1 : -1;
+      if (out.gateM > out.wallM) out.gateM = Infinity;
       return out;
     }
     if (exit === 1) (j = k), (entry = 3);
@@ -90,23 +91,30 @@ export function castRay(strip: RoadStrip, j: number, px: number, py: number, dx:
 }
 
 /**
- * Groups gate segments by quad: a gate at lap position s lies in quad floor(s / spacing).
+ * Groups gate segments by quad: a gate at lap position s lies in quad floor(s / spacing), or in a
+ * neighbour of it when the shipped spacing and positions are rounded, so each gate is listed in
+ * that quad and the two beside it (a ray tests it in whichever it visits; castRay keeps the
+ * nearest hit and drops one beyond the wall the ray stops at).
  * @param gates gates ordered by s, with ends on the wall faces
  */
 export function gateCells(strip: RoadStrip, gates: readonly { readonly s: number; readonly left: readonly [number, number]; readonly right: readonly [number, number] }[]): GateCells {
   const { n, spacingM } = strip;
   const quadOf = gates.map((g) => Math.min(n - 1, Math.max(0, Math.floor(g.s / spacingM))));
+  // the quads each gate is listed in: its own and its neighbours (distinct on laps of >= 3 quads)
+  const near = (q: number) => [q === 0 ? n - 1 : q - 1, q, q + 1 === n ? 0 : q + 1];
   const first = new Int32Array(n + 1);
-  for (const q of quadOf) first[q + 1]++;
+  for (const q of quadOf) for (const r of near(q)) first[r + 1]++;
   for (let j = 0; j < n; j++) first[j + 1] += first[j];
   const next = first.slice(0, n);
-  const ends = new Float64Array(4 * gates.length);
+  const ends = new Float64Array(4 * first[n]);
   gates.forEach((g, i) => {
-    const at = next[quadOf[i]]++;
-    ends[4 * at] = g.left[0];
-    ends[4 * at + 1] = g.left[1];
-    ends[4 * at + 2] = g.right[0];
-    ends[4 * at + 3] = g.right[1];
+    for (const r of near(quadOf[i])) {
+      const at = next[r]++;
+      ends[4 * at] = g.left[0];
+      ends[4 * at + 1] = g.left[1];
+      ends[4 * at + 2] = g.right[0];
+      ends[4 * at + 3] = g.right[1];
+    }
   });
   return { first, ends };
 }
