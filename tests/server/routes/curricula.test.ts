@@ -6,7 +6,7 @@ import { json, readyApp } from '../helpers.js';
 
 let app: FastifyInstance;
 beforeAll(async () => {
-  app = await readyApp({ workers: 2 });
+  app = await readyApp({ workers: 1 });
 });
 afterAll(async () => {
   await app.close();
