@@ -32,7 +32,7 @@ interface Figure {
 }
 
 async function main(): Promise<void> {
-  const build = spawnSync('npx', ['tsc', '-p', 'tsconfig.build.json'], { cwd: ROOT, stdio: 'inherit' });
+  const build = spawnSync('npm', ['run', 'build'], { cwd: ROOT, stdio: 'inherit' });
   if (build.status !== 0) throw new Error('build failed');
   const port = await freePort();
   // warn: per-request log lines would be part of what is measured
