@@ -6,6 +6,7 @@ import type { FastifyBaseLogger } from 'fastify';
 import { SlotFailure } from '../batch/run-batch.js';
 import { CurriculumTooFlat } from '../batch/curriculum-run.js';
 import { HttpError, unavailable } from './errors.js';
+import { poolErrorAnswer } from './generation.js';
 import { DeadlineError, PoolError } from './pool/track-pool.js';
 
 /** Share of the deadline a slot must have had on a worker for a timeout to be its own fault. */
@@ -43,16 +44,8 @@ export function batchFailure(err: unknown, what: string, deadlineMs: number, ret
     return unavailable('ERR_OVERLOADED', `the server is busy: ${what} waited ${Math.round(err.waitedMs)} ms for a worker; retry after ${retryAfterS} s`, retryAfterS);
   }
   if (err instanceof PoolError) {
-    switch (err.kind) {
-      case 'queue_full':
-        return unavailable('ERR_OVERLOADED', `the server is busy: ${err.message}; retry after ${retryAfterS} s`, retryAfterS);
-      case 'closed':
-        return unavailable('ERR_SHUTTING_DOWN', 'the server is shutting down; retry on another replica', retryAfterS);
-      case 'unavailable':
-        return unavailable('ERR_UNAVAILABLE', 'no generation workers are running on this server', retryAfterS);
-      case 'worker_crashed':
-        break;
-    }
+    const busy = poolErrorAnswer(err, retryAfterS);
+    if (busy) return busy;
   }
   log.error({ err }, 'a batch failed unexpectedly');
   return new HttpError('ERR_INTERNAL', 'Internal Server Error');

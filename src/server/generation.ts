@@ -59,18 +59,29 @@ function fromPoolFailure(err: unknown, input: TaskInput, { deadlineMs, retryAfte
     return unavailable('ERR_OVERLOADED', `the server is busy: this request waited ${Math.round(err.waitedMs)} ms for a worker and ran out of its ${deadlineMs} ms deadline; retry after ${retryAfterS} s`, retryAfterS);
   }
   if (err instanceof PoolError) {
-    switch (err.kind) {
-      case 'queue_full':
-        return unavailable('ERR_OVERLOADED', `the server is busy: ${err.message}; retry after ${retryAfterS} s`, retryAfterS);
-      case 'closed':
-        return unavailable('ERR_SHUTTING_DOWN', 'the server is shutting down; retry on another replica', retryAfterS);
-      case 'unavailable':
-        return unavailable('ERR_UNAVAILABLE', 'no generation workers are running on this server', retryAfterS);
-      case 'worker_crashed':
-        log.error({ task: input.kind, err }, 'a worker stopped while running a task');
-        return new HttpError('ERR_INTERNAL', 'Internal Server Error');
-    }
+    const busy = poolErrorAnswer(err, retryAfterS);
+    if (busy) return busy;
+    // what is left: a worker that stopped while running this task
+    log.error({ task: input.kind, err }, 'a worker stopped while running a task');
+    return new HttpError('ERR_INTERNAL', 'Internal Server Error');
   }
   log.error({ err }, 'unexpected pool failure');
   return new HttpError('ERR_INTERNAL', 'Internal Server Error');
+}
+
+/**
+ * The 503 for a pool that cannot take work (queue full, shutting down, no workers), or null for
+ * a crashed worker, which the caller answers as it sees fit. Shared by every route on the pool.
+ */
+export function poolErrorAnswer(err: PoolError, retryAfterS: number): HttpError | null {
+  switch (err.kind) {
+    case 'queue_full':
+      return unavailable('ERR_OVERLOADED', `the server is busy: ${err.message}; retry after ${retryAfterS} s`, retryAfterS);
+    case 'closed':
+      return unavailable('ERR_SHUTTING_DOWN', 'the server is shutting down; retry on another replica', retryAfterS);
+    case 'unavailable':
+      return unavailable('ERR_UNAVAILABLE', 'no generation workers are running on this server', retryAfterS);
+    default:
+      return null;
+  }
 }
