@@ -19,7 +19,7 @@ function shapeOnlyTrack(): Record<string, any> {
     format: TRACK_FORMAT,
     id: 'ab12',
     seed: 7,
-    generatorVersion: '1.1.0',
+    generatorVersion: '1.2.0',
     params: resolveParams({ seed: 7 }),
     attempts: 1,
     centerline: {

@@ -30,7 +30,10 @@ export interface ClearanceViolation {
 }
 
 export interface ClearanceResult {
-  /** Smallest gap between wall solids of distant parts found, metres (capped at measureBeyondM). */
+  /**
+   * Smallest gap between the wall solids of two parts of the lap more than πR apart along it,
+   * metres (capped at measureBeyondM; at most 0 when only violations are searched).
+   */
   readonly minGapM: number;
   readonly violations: ClearanceViolation[];
 }
@@ -42,9 +45,11 @@ export interface ClearanceResult {
  *
  * "Far apart along the track" is made exact by Schur's comparison theorem: on a curve whose
  * curvature never exceeds 1/R, two points an arc length Δs <= πR apart are at least as far as
- * on the circle of radius R, 2R sin(Δs / 2R). So pairs closer along the lap than
- * Δ*(a) = 2R asin(a / 2R) (or πR when a >= 2R) are the same part, and their distance follows
- * from the radius rule; every other pair nearer than a is a genuine violation.
+ * on the circle of radius R, 2R sin(Δs / 2R). Pairs closer along the lap than
+ * Δ*(a) = 2R asin(a / 2R) (or πR when a >= 2R) are the same part and their distance follows from
+ * the radius rule; pairs between Δ*(a) and πR are at least a apart by that bound. So only pairs
+ * more than πR apart along the lap are measured, and every such pair nearer than a is a
+ * violation. The measured gap (`minGapM`) is thus the closest approach of the lap to itself.
  *
  * Cost: one box index of chunks of 8 segments, one query per chunk: O(n log n) in practice.
  */
@@ -59,7 +64,10 @@ export function checkClearance(input: ClearanceInput): ClearanceResult {
   const chunks = Math.ceil(n / CHUNK);
   const index = new BoxIndex(chunks);
   const box = new Float64Array(4 * chunks);
+  // reach of a chunk's vertices (as the vertex side of a pair) and of its segments (their end
+  // vertex belongs to the next chunk)
   const chunkReach = new Float64Array(chunks);
+  const segmentReach = new Float64Array(chunks);
   for (let c = 0; c < chunks; c++) {
     let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity, r = 0;
     const end = Math.min(n, (c + 1) * CHUNK);
@@ -77,46 +85,100 @@ export function checkClearance(input: ClearanceInput): ClearanceResult {
     box[4 * c + 2] = maxX;
     box[4 * c + 3] = maxY;
     chunkReach[c] = r;
+    segmentReach[c] = Math.max(r, reach[end === n ? 0 : end]);
     index.add(minX, minY, maxX, maxY);
   }
   index.finish();
-  // pairs within the local arc of the largest required distance are the same part of the lap
-  // (one arcsine per vertex). When only violations are wanted, every pair up to πR apart along
-  // the lap is skipped: beyond the local arc and up to πR, Schur's bound keeps them farther apart
-  // than required, given the curvature bound the radius rule checks
-  const exempt = new Float64Array(n);
-  for (let i = 0; i < n; i++) exempt[i] = beyond > 0 ? localArcM(reach[i] + reachMax + marginM, minRadiusM) : Math.PI * minRadiusM;
-  const violations: ClearanceViolation[] = [];
-  let minGap = beyond;
-  for (let a = 0; a < chunks; a++) {
-    const aFrom = a * CHUNK, aTo = Math.min(n, aFrom + CHUNK);
-    // the box shrinks as the smallest gap found so far shrinks (branch and bound on the metric)
-    const q = chunkReach[a] + reachMax + marginM + Math.max(0, minGap);
-    let aExempt = Infinity;
-    for (let i = aFrom; i < aTo; i++) if (exempt[i] < aExempt) aExempt = exempt[i];
-    const found = index.search(box[4 * a] - q, box[4 * a + 1] - q, box[4 * a + 2] + q, box[4 * a + 3] + q);
-    for (const b of found) {
-      const bFrom = b * CHUNK, bTo = Math.min(n, bFrom + CHUNK);
-      // a whole chunk pair within the smallest local arc is the same part of the lap
-      if (farthestAlongLap(s, aFrom, aTo - 1, bFrom, bTo, n, lapLengthM) <= aExempt) continue;
-      for (let i = aFrom; i < aTo; i++) {
-        const px = points[2 * i], py = points[2 * i + 1];
-        const qi = reach[i] + reachMax + marginM + Math.max(0, minGap);
-        if (px < box[4 * b] - qi || px > box[4 * b + 2] + qi || py < box[4 * b + 1] - qi || py > box[4 * b + 3] + qi) continue;
-        for (let j = bFrom; j < bTo; j++) {
-          const j1 = j + 1 === n ? 0 : j + 1;
-          const ds = Math.min(cyclicGap(s[i], s[j], lapLengthM), cyclicGap(s[i], s[j1], lapLengthM));
-          if (ds <= exempt[i]) continue;
-          const a2 = reach[i] + Math.max(reach[j], reach[j1]) + marginM;
-          const d = pointSegmentDistance(px, py, points[2 * j], points[2 * j + 1], points[2 * j1], points[2 * j1 + 1]);
-          const gap = d - (a2 - marginM);
-          if (gap < minGap) minGap = gap;
-          if (d < a2 && violations.length < maxViolations) violations.push({ i, j, distanceM: d, requiredM: a2 });
-        }
+  // pairs up to πR apart along the lap are one part of it: beyond the local arc of the required
+  // distance and up to πR, Schur's bound keeps them farther apart than required, given the
+  // curvature bound the radius rule checks, so only pairs farther apart along the lap count
+  // (also for the measured gap: the closest approach of the lap to itself, not of a bend to itself)
+  const exemptM = Math.PI * minRadiusM;
+  const scan: PairScan = { points, s, lapLengthM, reach, marginM, exemptM, n, maxViolations, minGap: beyond, violations: [] };
+  if (beyond <= 0) {
+    // violations only: every chunk pair whose boxes come within the required distance
+    for (let a = 0; a < chunks; a++) {
+      const aFrom = a * CHUNK, aTo = Math.min(n, aFrom + CHUNK);
+      const q = chunkReach[a] + reachMax + marginM;
+      for (const b of index.search(box[4 * a] - q, box[4 * a + 1] - q, box[4 * a + 2] + q, box[4 * a + 3] + q)) {
+        // a whole chunk pair within πR along the lap is the same part of it
+        if (farthestAlongLap(s, aFrom, aTo - 1, b * CHUNK, Math.min(n, (b + 1) * CHUNK), n, lapLengthM) <= exemptM) continue;
+        scanChunkPair(scan, a, b, box, reachMax);
       }
     }
+    return { minGapM: scan.minGap, violations: scan.violations };
   }
-  return { minGapM: minGap, violations };
+  // measuring: chunk pairs by a lower bound of their gap (box distance less both reaches), in
+  // rounds of a doubling bound; once the smallest gap found is below a round's bound, no pair
+  // left can hold a smaller one (branch and bound)
+  const pairA: number[] = [];
+  const pairB: number[] = [];
+  const bound: number[] = [];
+  for (let a = 0; a < chunks; a++) {
+    const aFrom = a * CHUNK, aTo = Math.min(n, aFrom + CHUNK);
+    const q = chunkReach[a] + reachMax + marginM + beyond;
+    for (const b of index.search(box[4 * a] - q, box[4 * a + 1] - q, box[4 * a + 2] + q, box[4 * a + 3] + q)) {
+      if (farthestAlongLap(s, aFrom, aTo - 1, b * CHUNK, Math.min(n, (b + 1) * CHUNK), n, lapLengthM) <= exemptM) continue;
+      const lower = boxDistance(box, a, b) - chunkReach[a] - segmentReach[b];
+      if (lower >= marginM + beyond) continue;
+      pairA.push(a);
+      pairB.push(b);
+      bound.push(lower);
+    }
+  }
+  let done = -Infinity;
+  for (let step = 1; done < marginM + Math.max(0, scan.minGap); step *= 2) {
+    const upTo = Math.min(marginM + step, marginM + beyond);
+    for (let k = 0; k < bound.length; k++) if (bound[k] >= done && bound[k] < upTo) scanChunkPair(scan, pairA[k], pairB[k], box, reachMax);
+    done = upTo;
+    if (upTo >= marginM + beyond) break;
+  }
+  return { minGapM: scan.minGap, violations: scan.violations };
+}
+
+// the state of a clearance scan: inputs, and the smallest gap and violations found so far
+interface PairScan {
+  readonly points: Float64Array;
+  readonly s: Float64Array;
+  readonly lapLengthM: number;
+  readonly reach: Float64Array;
+  readonly marginM: number;
+  readonly exemptM: number;
+  readonly n: number;
+  readonly maxViolations: number;
+  minGap: number;
+  readonly violations: ClearanceViolation[];
+}
+
+// every vertex of chunk a against every segment of chunk b more than πR away along the lap
+function scanChunkPair(scan: PairScan, a: number, b: number, box: Float64Array, reachMax: number): void {
+  const { points, s, lapLengthM, reach, marginM, exemptM, n, maxViolations, violations } = scan;
+  const aFrom = a * CHUNK, aTo = Math.min(n, aFrom + CHUNK);
+  const bFrom = b * CHUNK, bTo = Math.min(n, bFrom + CHUNK);
+  let minGap = scan.minGap;
+  for (let i = aFrom; i < aTo; i++) {
+    const px = points[2 * i], py = points[2 * i + 1];
+    const qi = reach[i] + reachMax + marginM + Math.max(0, minGap);
+    if (px < box[4 * b] - qi || px > box[4 * b + 2] + qi || py < box[4 * b + 1] - qi || py > box[4 * b + 3] + qi) continue;
+    for (let j = bFrom; j < bTo; j++) {
+      const j1 = j + 1 === n ? 0 : j + 1;
+      const ds = Math.min(cyclicGap(s[i], s[j], lapLengthM), cyclicGap(s[i], s[j1], lapLengthM));
+      if (ds <= exemptM) continue;
+      const a2 = reach[i] + Math.max(reach[j], reach[j1]) + marginM;
+      const d = pointSegmentDistance(px, py, points[2 * j], points[2 * j + 1], points[2 * j1], points[2 * j1 + 1]);
+      const gap = d - (a2 - marginM);
+      if (gap < minGap) minGap = gap;
+      if (d < a2 && violations.length < maxViolations) violations.push({ i, j, distanceM: d, requiredM: a2 });
+    }
+  }
+  scan.minGap = minGap;
+}
+
+// distance between the boxes of chunks a and b (0 when they meet)
+function boxDistance(box: Float64Array, a: number, b: number): number {
+  const dx = Math.max(0, box[4 * b] - box[4 * a + 2], box[4 * a] - box[4 * b + 2]);
+  const dy = Math.max(0, box[4 * b + 1] - box[4 * a + 3], box[4 * a + 1] - box[4 * b + 3]);
+  return Math.sqrt(dx * dx + dy * dy);
 }
 
 /** Segments per indexed chunk: fewer, larger boxes, so local stretches are skipped wholesale. */

@@ -1,0 +1,210 @@
+/**
+ * JSON text written straight into bytes: the same text as `JSON.stringify(value)` for the plain
+ * data a track is made of (objects, arrays, strings, finite numbers, booleans, null), about
+ * twice as fast on a track, because most of a track is numbers with at most nine decimals and
+ * those are written from integers here instead of through the general double-to-text routine.
+ *
+ * Why the text is the same: `JSON.stringify` writes a number as the shortest decimal that reads
+ * back as the same double. For |x| in [1e-6, 1e6) that is an exact multiple of 1e-9 (the test
+ * `k / 1e9 === x` with k = round(x · 1e9)), k has at most 15 digits, and two different decimals
+ * of at most 15 significant digits never read back as the same double (a double carries 15
+ * decimal digits faithfully), so k's digits with trailing zeros dropped are that shortest
+ * decimal; numbers outside that range or not on the 1e-9 grid go through `String(x)`, which is
+ * what `JSON.stringify` uses. Strings go through `JSON.stringify`. Text with a character beyond
+ * ASCII is not written here (the caller falls back), so that bytes and UTF-16 text agree.
+ */
+
+import { createHash } from 'node:crypto';
+
+const SCALE = 1e9;
+const FRACTION_DIGITS = 9;
+const MAX_DIGITS_VALUE = 1e15;
+
+/** A growable byte buffer of ASCII JSON text. */
+class JsonWriter {
+  bytes: Uint8Array;
+  length = 0;
+  /** Set when a string held a character beyond ASCII; the bytes are then not the text. */
+  nonAscii = false;
+
+  constructor(buffer: Uint8Array) {
+    this.bytes = buffer;
+  }
+
+  private reserve(extra: number): void {
+    if (this.length + extra <= this.bytes.length) return;
+    let size = this.bytes.length * 2;
+    while (size < this.length + extra) size *= 2;
+    const grown = new Uint8Array(size);
+    grown.set(this.bytes.subarray(0, this.length));
+    this.bytes = grown;
+  }
+
+  byte(code: number): void {
+    this.reserve(1);
+    this.bytes[this.length++] = code;
+  }
+
+  ascii(text: string): void {
+    const n = text.length;
+    this.reserve(n);
+    const b = this.bytes;
+    let at = this.length;
+    for (let i = 0; i < n; i++) {
+      const c = text.charCodeAt(i);
+      if (c > 0x7f) this.nonAscii = true;
+      b[at++] = c;
+    }
+    this.length = at;
+  }
+
+  number(x: number): void {
+    if (x === 0) {
+      this.byte(0x30); // also -0, which JSON writes as 0
+      return;
+    }
+    if (!Number.isFinite(x)) {
+      this.ascii('null');
+      return;
+    }
+    const a = x < 0 ? -x : x;
+    if (a >= 1e-6 && a < 1e6) {
+      const k = Math.round(a * SCALE);
+      if (k / SCALE === a && k < MAX_DIGITS_VALUE) {
+        this.reserve(FRACTION_DIGITS + 18);
+        if (x < 0) this.bytes[this.length++] = 0x2d;
+        const whole = Math.floor(k / SCALE);
+        const fraction = k - whole * SCALE;
+        this.unsigned(whole);
+        if (fraction !== 0) this.fraction(fraction);
+        return;
+      }
+    }
+    this.ascii(String(x));
+  }
+
+  // a non-negative integer below 1e6, in decimal
+  private unsigned(v: number): void {
+    const b = this.bytes;
+    if (v < 10) {
+      b[this.length++] = 0x30 + v;
+      return;
+    }
+    let digits = 1;
+    for (let t = v; t >= 10; t = (t / 10) | 0) digits++;
+    let at = this.length + digits;
+    this.length = at;
+    for (let t = v; digits > 0; digits--) {
+      const q = (t / 10) | 0;
+      b[--at] = 0x30 + (t - q * 10);
+      t = q;
+    }
+  }
+
+  // '.' and the nine decimals of 0 < f < 1e9 (below 2^31: integer arithmetic), trailing zeros dropped
+  private fraction(f: number): void {
+    let digits = FRACTION_DIGITS;
+    let t = f | 0;
+    // most numbers of a track have 3 or 6 decimals
+    if (t % 1_000_000 === 0) {
+      t = (t / 1_000_000) | 0;
+      digits = 3;
+    } else if (t % 1000 === 0) {
+      t = (t / 1000) | 0;
+      digits = 6;
+    }
+    for (let q = (t / 10) | 0; t === q * 10; q = (t / 10) | 0) {
+      t = q;
+      digits--;
+    }
+    const b = this.bytes;
+    b[this.length] = 0x2e;
+    let at = this.length + 1 + digits;
+    this.length = at;
+    for (let d = digits; d > 0; d--) {
+      const q = (t / 10) | 0;
+      b[--at] = 0x30 + (t - q * 10);
+      t = q;
+    }
+  }
+
+  value(v: unknown): void {
+    if (typeof v === 'number') this.number(v);
+    else if (typeof v === 'string') this.ascii(JSON.stringify(v));
+    else if (v === null) this.ascii('null');
+    else if (typeof v === 'boolean') this.ascii(v ? 'true' : 'false');
+    else if (Array.isArray(v)) this.array(v);
+    else if (typeof v === 'object') this.object(v as Record<string, unknown>);
+    else throw new TypeError(`jsonBytes: cannot write a ${typeof v}`);
+  }
+
+  private array(items: readonly unknown[]): void {
+    const n = items.length;
+    if (n > 0 && typeof items[0] === 'number') {
+      this.numbers(items);
+      return;
+    }
+    this.byte(0x5b);
+    for (let i = 0; i < n; i++) {
+      if (i > 0) this.byte(0x2c);
+      const item = items[i];
+      if (item === undefined || typeof item === 'function') this.ascii('null');
+      else this.value(item);
+    }
+    this.byte(0x5d);
+  }
+
+  // an array that starts with a number: the common case of a track (coordinates, profiles)
+  private numbers(items: readonly unknown[]): void {
+    const n = items.length;
+    this.byte(0x5b);
+    for (let i = 0; i < n; i++) {
+      if (i > 0) this.byte(0x2c);
+      const item = items[i];
+      if (typeof item === 'number') this.number(item);
+      else if (item === undefined || typeof item === 'function') this.ascii('null');
+      else this.value(item);
+    }
+    this.byte(0x5d);
+  }
+
+  private object(o: Record<string, unknown>): void {
+    if (typeof (o as { toJSON?: unknown }).toJSON === 'function') {
+      throw new TypeError('jsonBytes: objects with toJSON are not written here');
+    }
+    this.byte(0x7b);
+    let first = true;
+    for (const key of Object.keys(o)) {
+      const item = o[key];
+      if (item === undefined || typeof item === 'function') continue;
+      if (!first) this.byte(0x2c);
+      first = false;
+      this.ascii(JSON.stringify(key));
+      this.byte(0x3a);
+      this.value(item);
+    }
+    this.byte(0x7d);
+  }
+}
+
+/** The writer's buffer, kept between calls (the core is synchronous, so one at a time uses it). */
+let scratch: Uint8Array = new Uint8Array(1 << 16);
+
+/**
+ * `JSON.stringify(value)` and the hex sha256 of its UTF-8 bytes, or null when the text would hold
+ * a character beyond ASCII (then use JSON.stringify and hash the text).
+ *
+ * @param value plain data: objects, arrays, strings, numbers, booleans, null (typed arrays,
+ *   Maps, bigint and objects with toJSON are not supported)
+ * @example jsonWithSha256({ a: [1.5, 2] })?.json // '{"a":[1.5,2]}'
+ */
+export function jsonWithSha256(value: unknown): { readonly json: string; readonly sha256: string } | null {
+  const w = new JsonWriter(scratch);
+  w.value(value);
+  scratch = w.bytes;
+  if (w.nonAscii) return null;
+  const bytes = w.bytes.subarray(0, w.length);
+  const sha256 = createHash('sha256').update(bytes).digest('hex');
+  const json = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.length).toString('latin1');
+  return { json, sha256 };
+}
