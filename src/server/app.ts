@@ -25,6 +25,7 @@ import { splitRoutes } from './routes/splits.js';
 import { trackRoutes } from './routes/tracks.js';
 import { validateRoutes } from './routes/validate.js';
 import { webRoutes } from './routes/web.js';
+import { DOCS_CSP, installSecurity, notFoundOptions, securityHeaders, securityScheme } from './security.js';
 import { zodValidator } from './validation.js';
 
 export type { AppOptions } from './config.js';
@@ -59,6 +60,7 @@ declare module 'fastify' {
  */
 export async function buildApp(options: AppOptions = {}): Promise<FastifyInstance> {
   const resolved = resolveAppOptions(options);
+  const headers = securityHeaders(resolved);
   const app = Fastify({
     logger: resolved.logger,
     bodyLimit: resolved.bodyLimitBytes,
@@ -66,8 +68,11 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     return503OnClosing: false,
     // seeds are path segments of up to 64 characters, URL-encoded
     routerOptions: { maxParamLength: 1024 },
-    // errors the router raises before any route (a URL that does not decode) get our body too
-    frameworkErrors: (err, request, reply) => handleError(err, request, reply),
+    // errors the router raises before any route (a URL that does not decode) get our body and headers too
+    frameworkErrors: (err, request, reply) => {
+      headers(request, reply);
+      return handleError(err, request, reply);
+    },
   });
   await app.register(fp(lapwrightService, { name: 'lapwright', fastify: '5.x' }), resolved);
   return app;
@@ -87,12 +92,14 @@ export const lapwrightService: FastifyPluginAsync<ResolvedAppOptions> = async (a
     );
   }
 
+  // headers, CORS, token and rate limit come first: the last two attach to routes as they are added
+  await installSecurity(app, options);
   installParsers(app);
   app.setValidatorCompiler(zodValidator('ERR_INVALID_PARAMS'));
   // answers are plain JSON; their zod schemas document them (and the tests check them)
   app.setSerializerCompiler(() => (data) => JSON.stringify(data));
   app.setErrorHandler(handleError);
-  app.setNotFoundHandler(handleNotFound);
+  app.setNotFoundHandler(notFoundOptions(app, options), handleNotFound);
   installLifecycle(app, state);
 
   await app.register(fastifySwagger, {
@@ -111,7 +118,7 @@ export const lapwrightService: FastifyPluginAsync<ResolvedAppOptions> = async (a
       ],
     },
     transform: createJsonSchemaTransform({ skipList: [] }),
-    transformObject: (document) => pruneComponents(jsonSchemaTransformObject(document)),
+    transformObject: (document) => securityScheme(pruneComponents(jsonSchemaTransformObject(document))),
   });
 
   await app.register(healthRoutes);
@@ -128,7 +135,7 @@ export const lapwrightService: FastifyPluginAsync<ResolvedAppOptions> = async (a
 
   app.get('/openapi.json', { schema: { hide: true } }, async (_request, reply) => reply.type('application/json; charset=utf-8').send(app.swagger()));
   // the UI and its assets ship inside the package: /docs works with no network
-  await app.register(fastifySwaggerUi, { routePrefix: DOCS_PREFIX, uiConfig: { url: '/openapi.json', deepLinking: true } });
+  await app.register(fastifySwaggerUi, { routePrefix: DOCS_PREFIX, uiConfig: { url: '/openapi.json', deepLinking: true }, staticCSP: DOCS_CSP });
   // the preview page (GET /) and its assets, from src/web
   await app.register(webRoutes);
 };

@@ -30,6 +30,14 @@ export interface AppOptions {
   readonly workerData?: Readonly<Record<string, unknown>>;
   /** Knobs of the batch routes (src/server/batch-options.ts); their defaults are filled by the routes. */
   readonly batch?: BatchOptions;
+  /** Origins a browser page may call the API from (CORS); ['*'] for any; default none (CORS off). */
+  readonly corsOrigins?: readonly string[];
+  /** When set, every /v1 route needs `Authorization: Bearer <apiToken>` (RFC 6750); default none. */
+  readonly apiToken?: string;
+  /** Requests per client IP per window before 429; 0 (the default) turns rate limiting off. */
+  readonly rateLimitMax?: number;
+  /** Length of the rate-limit window, ms. */
+  readonly rateLimitWindowMs?: number;
 }
 
 /** AppOptions with every default filled in. */
@@ -45,6 +53,13 @@ export interface ResolvedAppOptions {
   readonly workerUrl?: URL;
   readonly workerData?: Readonly<Record<string, unknown>>;
   readonly batch?: BatchOptions;
+  /** Empty: CORS off. */
+  readonly corsOrigins: readonly string[];
+  /** undefined: no token needed. */
+  readonly apiToken: string | undefined;
+  /** 0: no rate limit. */
+  readonly rateLimitMax: number;
+  readonly rateLimitWindowMs: number;
 }
 
 /** The listening entry's configuration: where to listen, and the app's options. */
@@ -66,7 +81,16 @@ export const APP_DEFAULTS = {
   bodyLimitBytes: 1024 * 1024,
   trackBodyLimitBytes: 4 * 1024 * 1024,
   retryAfterS: 1,
+  // off: a training farm behind one NAT address must not be throttled by surprise
+  rateLimitMax: 0,
+  rateLimitWindowMs: 60_000,
 } as const;
+
+/** The API token's length bounds, characters (16: common practice for a shared secret, no source). */
+export const API_TOKEN_CHARS = { min: 16, max: 512 } as const;
+
+// RFC 6750 §2.1 b64token: what a client can send after "Bearer "
+const B64TOKEN = /^[A-Za-z0-9\-._~+/]+=*$/;
 
 /** Defaults of the listening entry. */
 export const SERVER_DEFAULTS = {
@@ -99,6 +123,10 @@ export const ENV_VARS = {
   trackBodyLimitBytes: { name: 'LAPWRIGHT_TRACK_BODY_LIMIT_BYTES', meaning: 'largest body of POST /v1/tracks/validate, bytes', defaultText: `${APP_DEFAULTS.trackBodyLimitBytes} (4 MiB)`, min: 1024, max: 1024 ** 3 },
   retryAfterS: { name: 'LAPWRIGHT_RETRY_AFTER_S', meaning: 'seconds a 503 asks the client to wait (Retry-After)', defaultText: String(APP_DEFAULTS.retryAfterS), min: 0, max: 3600 },
   shutdownTimeoutMs: { name: 'LAPWRIGHT_SHUTDOWN_TIMEOUT_MS', meaning: 'after SIGTERM, longest wait for in-flight requests, ms', defaultText: String(SERVER_DEFAULTS.shutdownTimeoutMs), min: 0, max: 3_600_000 },
+  corsOrigins: { name: 'LAPWRIGHT_CORS_ORIGINS', meaning: 'origins a browser page may call the API from: comma-separated (https://a.example,http://localhost:5173), or * for any', defaultText: 'none (CORS off)' },
+  apiToken: { name: 'LAPWRIGHT_API_TOKEN', meaning: `when set, every /v1 request must send it as Authorization: Bearer ... (401 otherwise); ${API_TOKEN_CHARS.min} to ${API_TOKEN_CHARS.max} characters of A-Z a-z 0-9 - . _ ~ + /`, defaultText: 'none (no token needed)' },
+  rateLimitMax: { name: 'LAPWRIGHT_RATE_LIMIT_MAX', meaning: 'requests per client IP per window before 429 + Retry-After (/healthz and /readyz exempt); 0 = no limit', defaultText: '0 (off)', min: 0, max: 1_000_000_000 },
+  rateLimitWindowMs: { name: 'LAPWRIGHT_RATE_LIMIT_WINDOW_MS', meaning: 'length of the rate-limit window, ms', defaultText: String(APP_DEFAULTS.rateLimitWindowMs), min: 1000, max: 86_400_000 },
 } as const satisfies Record<string, EnvVar>;
 
 /** A configuration that cannot start the server; `problems` names each bad variable. */
@@ -130,15 +158,72 @@ export function resolveAppOptions(options: AppOptions = {}): ResolvedAppOptions 
     workerUrl: options.workerUrl,
     workerData: options.workerData,
     batch: options.batch,
+    corsOrigins: options.corsOrigins ?? [],
+    apiToken: options.apiToken,
+    rateLimitMax: options.rateLimitMax ?? APP_DEFAULTS.rateLimitMax,
+    rateLimitWindowMs: options.rateLimitWindowMs ?? APP_DEFAULTS.rateLimitWindowMs,
   };
-  for (const key of ['workers', 'maxQueue', 'deadlineMs', 'bodyLimitBytes', 'trackBodyLimitBytes', 'retryAfterS'] as const) {
+  for (const key of ['workers', 'maxQueue', 'deadlineMs', 'bodyLimitBytes', 'trackBodyLimitBytes', 'retryAfterS', 'rateLimitMax', 'rateLimitWindowMs'] as const) {
     const spec: EnvVar = ENV_VARS[key];
     const value = resolved[key];
     if (!Number.isInteger(value) || value < (spec.min ?? 0) || value > (spec.max ?? Infinity)) {
       throw new RangeError(`${key} must be an integer from ${spec.min} to ${spec.max}, got ${value}`);
     }
   }
+  const originProblem = corsOriginsProblem(resolved.corsOrigins);
+  if (originProblem !== undefined) throw new RangeError(`corsOrigins: ${originProblem}`);
+  const tokenProblem = resolved.apiToken === undefined ? undefined : apiTokenProblem(resolved.apiToken);
+  if (tokenProblem !== undefined) throw new RangeError(`apiToken ${tokenProblem}`);
   return resolved;
+}
+
+/**
+ * Splits LAPWRIGHT_CORS_ORIGINS: comma-separated, blanks around entries and empty entries dropped.
+ * @example parseCorsOrigins(' https://a.example, http://localhost:5173 ') // ['https://a.example', 'http://localhost:5173']
+ */
+export function parseCorsOrigins(raw: string): string[] {
+  return raw
+    .split(',')
+    .map((o) => o.trim())
+    .filter((o) => o !== '');
+}
+
+/**
+ * What is wrong with a list of CORS origins, or undefined when nothing is: '*' must stand alone,
+ * and every other entry must be an http or https origin as a browser sends it in its Origin
+ * header (RFC 6454 §6.1: scheme://host[:port], lower case, no path, no default port).
+ */
+export function corsOriginsProblem(origins: readonly string[]): string | undefined {
+  if (origins.includes('*')) return origins.length === 1 ? undefined : `* (any origin) must stand alone, got ${JSON.stringify(origins.join(','))}`;
+  const bad = origins.filter((o) => serializedOrigin(o) !== o);
+  if (bad.length === 0) return undefined;
+  const fixes = bad.map((o) => {
+    const fixed = serializedOrigin(o);
+    return fixed === undefined ? `${JSON.stringify(o)} is not an http(s) origin` : `${JSON.stringify(o)} should be ${JSON.stringify(fixed)}`;
+  });
+  return `each entry must be an origin scheme://host[:port] with no path, or * alone: ${fixes.join(', ')}`;
+}
+
+/**
+ * What is wrong with an API token, or undefined when nothing is: RFC 6750 §2.1 b64token
+ * characters, API_TOKEN_CHARS long.
+ */
+export function apiTokenProblem(token: string): string | undefined {
+  const { min, max } = API_TOKEN_CHARS;
+  if (token.length < min || token.length > max) return `must be ${min} to ${max} characters long, got ${token.length} (make one with: openssl rand -hex 32)`;
+  if (!B64TOKEN.test(token)) return 'may hold only A-Z a-z 0-9 - . _ ~ + / (and = at the end), as a Bearer token must (RFC 6750 §2.1)';
+  return undefined;
+}
+
+// the origin a browser would send for this text, or undefined when it is not an http(s) URL
+function serializedOrigin(text: string): string | undefined {
+  let url: URL;
+  try {
+    url = new URL(text);
+  } catch {
+    return undefined;
+  }
+  return url.protocol === 'http:' || url.protocol === 'https:' ? url.origin : undefined;
 }
 
 /**
@@ -164,6 +249,15 @@ export function readServerConfig(env: Readonly<Record<string, string | undefined
   const logLevel = env[ENV_VARS.logLevel.name]?.trim() || SERVER_DEFAULTS.logLevel;
   if (!(LOG_LEVELS as readonly string[]).includes(logLevel)) problems.push(`${ENV_VARS.logLevel.name} must be one of ${LOG_LEVELS.join(', ')}, got ${JSON.stringify(logLevel)}`);
   const shutdownTimeoutMs = int(ENV_VARS.shutdownTimeoutMs) ?? SERVER_DEFAULTS.shutdownTimeoutMs;
+  const corsRaw = env[ENV_VARS.corsOrigins.name]?.trim();
+  const corsOrigins = corsRaw === undefined || corsRaw === '' ? undefined : parseCorsOrigins(corsRaw);
+  const corsProblem = corsOrigins === undefined ? undefined : corsOriginsProblem(corsOrigins);
+  if (corsProblem !== undefined) problems.push(`${ENV_VARS.corsOrigins.name}: ${corsProblem}`);
+  // the token is a secret: a problem names its length or characters, never its value
+  const tokenRaw = env[ENV_VARS.apiToken.name]?.trim();
+  const apiToken = tokenRaw === undefined || tokenRaw === '' ? undefined : tokenRaw;
+  const tokenProblem = apiToken === undefined ? undefined : apiTokenProblem(apiToken);
+  if (tokenProblem !== undefined) problems.push(`${ENV_VARS.apiToken.name} ${tokenProblem}`);
   const options: AppOptions = {
     workers: int(ENV_VARS.workers),
     maxQueue: int(ENV_VARS.maxQueue),
@@ -173,6 +267,10 @@ export function readServerConfig(env: Readonly<Record<string, string | undefined
     retryAfterS: int(ENV_VARS.retryAfterS),
     logger: { level: logLevel },
     batch: readBatchEnv(env, problems),
+    corsOrigins: corsProblem === undefined ? corsOrigins : undefined,
+    apiToken: tokenProblem === undefined ? apiToken : undefined,
+    rateLimitMax: int(ENV_VARS.rateLimitMax),
+    rateLimitWindowMs: int(ENV_VARS.rateLimitWindowMs),
   };
   if (problems.length > 0) throw new ConfigError(problems);
   return { port, host, logLevel, shutdownTimeoutMs, app: resolveAppOptions(options) };

@@ -21,6 +21,10 @@ describe('readServerConfig', () => {
         startPool: true,
         workerUrl: undefined,
         workerData: undefined,
+        corsOrigins: [],
+        apiToken: undefined,
+        rateLimitMax: 0,
+        rateLimitWindowMs: 60_000,
       },
     });
   });

@@ -25,17 +25,22 @@ describe('OpenAPI document', () => {
       expect(routes).toEqual([
         'GET /healthz 200',
         'GET /readyz 200,503',
-        'POST /v1/tracks 200,304,400,406,413,415,422,503',
-        'GET /v1/tracks/{seed} 200,304,400,406,422,503',
-        'POST /v1/tracks/validate 200,400,413,415,422,503',
-        'GET /v1/presets 200',
-        'GET /v1/params 200',
-        'GET /v1/schema/track 200',
-        'POST /v1/batches 200,400,413,415,422,503',
-        'GET /v1/splits/{seed} 200,400',
-        'POST /v1/tracks/distance 200,400,413,422,503',
-        'POST /v1/curricula 200,400,422,503',
+        'POST /v1/tracks 200,304,400,401,406,413,415,422,429,503',
+        'GET /v1/tracks/{seed} 200,304,400,401,406,422,429,503',
+        'POST /v1/tracks/validate 200,400,401,413,415,422,429,503',
+        'GET /v1/presets 200,401,429',
+        'GET /v1/params 200,401,429',
+        'GET /v1/schema/track 200,401,429',
+        'POST /v1/batches 200,400,401,413,415,422,429,503',
+        'GET /v1/splits/{seed} 200,400,401,429',
+        'POST /v1/tracks/distance 200,400,401,413,422,429,503',
+        'POST /v1/curricula 200,400,401,422,429,503',
       ]);
+      // the token (when the server sets one) and the rate limit apply to every /v1 route, not to the probes
+      expect((doc.components as { securitySchemes?: unknown }).securitySchemes).toEqual({ bearerAuth: { type: 'http', scheme: 'bearer', description: expect.stringContaining('LAPWRIGHT_API_TOKEN') } });
+      for (const [path, methods] of Object.entries(doc.paths)) {
+        for (const op of Object.values(methods) as { security?: unknown }[]) expect(op.security, path).toEqual(path.startsWith('/v1/') ? [{ bearerAuth: [] }, {}] : undefined);
+      }
       // the preview page and its assets are not part of the API
       expect(Object.keys(doc.paths).filter((p) => p === '/' || p.startsWith('/assets'))).toEqual([]);
       // both track routes answer every format and point at the track's JSON Schema
