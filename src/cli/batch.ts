@@ -92,6 +92,7 @@ export async function runBatchCommand(args: readonly string[], io: CliIo): Promi
   if (values['min-novelty'] !== undefined) body.minNovelty = readNumberText(values['min-novelty']);
   if (body.count === undefined) throw new InputError('--count is required (see lapwright batch --help)');
   if (Object.hasOwn(body, 'reference') || Object.hasOwn(body, 'detail')) throw new InputError('--request holds a batch body without reference or detail: give the reference with --reference FILE');
+  if (Object.hasOwn(body, 'startIndex')) throw new InputError('--request holds startIndex, a field of POST /v1/batches: lapwright batch makes every index of its shard; split the work with --shard instead');
   const parsed = batchBodySchema.safeParse(body);
   if (!parsed.success) throw new InputError('invalid batch (ERR_INVALID_PARAMS)', formatIssues(parsed.error));
   const request = parsed.data;

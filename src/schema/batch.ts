@@ -97,8 +97,18 @@ export const batchBodySchema = strict(
       .enum(BATCH_DETAILS, { error: expectedError(`one of ${BATCH_DETAILS.join(', ')}`) })
       .optional()
       .meta({ description: 'full (default): each line is a whole track, the same bytes as POST /v1/tracks; summary: each line is the track\'s manifest entry (index, seed, draw, split, id, params, metrics, shape) without the geometry.', default: 'full' }),
+    startIndex: z
+      .int({ error: rangeError({ min: 0, max: MAX_BATCH_SLOTS - 1 }, NO_UNIT, true) })
+      .min(0, { error: rangeError({ min: 0, max: MAX_BATCH_SLOTS - 1 }, NO_UNIT, true) })
+      .max(MAX_BATCH_SLOTS - 1, { error: rangeError({ min: 0, max: MAX_BATCH_SLOTS - 1 }, NO_UNIT, true) })
+      .optional()
+      .meta({
+        description:
+          'First track index to make, below count (default 0). Resumes a batch that was cut short: send the same body with its baseSeed and startIndex from the stream\'s last line (resume.startIndex); the lines then cover tracks startIndex .. count − 1, each the same as in the uninterrupted batch. With minNovelty, also add the tracks already received to reference, so that later tracks are tested against them as before.',
+        default: 0,
+      }),
   },
-  'an object {count, split, baseSeed, params, difficulty, minNovelty, reference, detail}',
+  'an object {count, split, baseSeed, params, difficulty, minNovelty, reference, detail, startIndex}',
 ).meta({ description: 'A batch of tracks for a training farm.' });
 
 export type BatchBody = z.infer<typeof batchBodySchema>;

@@ -44,8 +44,8 @@ export function batchFailure(err: unknown, what: string, deadlineMs: number, ret
     return unavailable('ERR_OVERLOADED', `the server is busy: ${what} waited ${Math.round(err.waitedMs)} ms for a worker; retry after ${retryAfterS} s`, retryAfterS);
   }
   if (err instanceof PoolError) {
-    const busy = poolErrorAnswer(err, retryAfterS);
-    if (busy) return busy;
+    if (err.kind === 'worker_crashed') log.error({ err }, `a worker stopped while making ${what}; it was replaced`);
+    return poolErrorAnswer(err, retryAfterS);
   }
   log.error({ err }, 'a batch failed unexpectedly');
   return new HttpError('ERR_INTERNAL', 'Internal Server Error');

@@ -15,12 +15,10 @@ export const HTTP_ERRORS = {
   ERR_INVALID_TRACK: { status: ERROR_CODES.ERR_INVALID_TRACK.status, meaning: 'uploaded track malformed (wrong types, missing fields): every offending field is listed in issues' },
   ERR_INVALID_JSON: { status: 400, meaning: 'request body is not JSON' },
   ERR_BAD_REQUEST: { status: 400, meaning: 'request malformed at the HTTP level (bad Content-Length, URL encoding)' },
-  ERR_UNAUTHORIZED: { status: 401, meaning: 'the server has an API token and the request did not send it as Authorization: Bearer ... (or sent another)' },
   ERR_NOT_FOUND: { status: 404, meaning: 'no such route' },
   ERR_NOT_ACCEPTABLE: { status: 406, meaning: 'the Accept header allows none of the formats (JSON, glb, SVG, CSV)' },
   ERR_BODY_TOO_LARGE: { status: 413, meaning: 'request body over the size cap' },
   ERR_UNSUPPORTED_MEDIA_TYPE: { status: 415, meaning: 'request body is not application/json' },
-  ERR_RATE_LIMITED: { status: 429, meaning: 'this client sent more requests in the rate-limit window than the server allows: retry after Retry-After seconds' },
   ERR_INFEASIBLE: { status: ERROR_CODES.ERR_INFEASIBLE.status, meaning: 'well-formed parameters that no valid track meets: reason, hint and the last attempt\'s issues' },
   ERR_DEADLINE_EXCEEDED: { status: 422, meaning: 'the request alone needs more time than the deadline: ask for less (shorter lap, fewer corners)' },
   ERR_INTERNAL: { status: 500, meaning: 'a bug: logged on the server, never caused by input' },
@@ -28,6 +26,7 @@ export const HTTP_ERRORS = {
   ERR_NOT_READY: { status: 503, meaning: 'the worker pool is still starting (readiness)' },
   ERR_SHUTTING_DOWN: { status: 503, meaning: 'the server is draining after SIGTERM: retry on another replica' },
   ERR_UNAVAILABLE: { status: 503, meaning: 'no generation workers could be started' },
+  ERR_WORKER_CRASHED: { status: 503, meaning: 'the worker thread making this answer stopped unexpectedly and was replaced: retry after Retry-After seconds' },
 } as const;
 
 export type HttpErrorCode = keyof typeof HTTP_ERRORS;
@@ -92,6 +91,6 @@ export function errorBody(code: HttpErrorCode, message: string, extras: ErrorExt
 }
 
 /** A 503 with Retry-After. */
-export function unavailable(code: 'ERR_OVERLOADED' | 'ERR_NOT_READY' | 'ERR_SHUTTING_DOWN' | 'ERR_UNAVAILABLE', message: string, retryAfterS: number): HttpError {
+export function unavailable(code: 'ERR_OVERLOADED' | 'ERR_NOT_READY' | 'ERR_SHUTTING_DOWN' | 'ERR_UNAVAILABLE' | 'ERR_WORKER_CRASHED', message: string, retryAfterS: number): HttpError {
   return new HttpError(code, message, {}, { 'retry-after': String(retryAfterS) });
 }

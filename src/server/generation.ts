@@ -1,7 +1,8 @@
 /**
  * Runs a task on the worker pool and turns every way it can end into either its output or the
  * HttpError to answer with: 422 for what the request itself asks (infeasible, or too big for
- * the deadline), 503 + Retry-After for what the server's load causes, 500 for a bug.
+ * the deadline), 503 + Retry-After for what the server's load causes or a worker that died
+ * under the task (replaced at once), 500 for a bug.
  */
 import type { FastifyBaseLogger } from 'fastify';
 import { HttpError, unavailable } from './errors.js';
@@ -23,7 +24,7 @@ type Success<K extends TaskInput['kind']> = Extract<TaskOutput, { ok: true; kind
  * Runs one task with the request's deadline.
  * @param pool null when the app runs without workers (documentation only)
  * @throws HttpError ERR_INFEASIBLE / ERR_DEADLINE_EXCEEDED (422), ERR_OVERLOADED,
- *   ERR_SHUTTING_DOWN, ERR_NOT_READY, ERR_UNAVAILABLE (503), ERR_INTERNAL (500)
+ *   ERR_SHUTTING_DOWN, ERR_NOT_READY, ERR_UNAVAILABLE, ERR_WORKER_CRASHED (503), ERR_INTERNAL (500)
  */
 export async function runTaskOnPool<I extends TaskInput>(pool: TrackPool | null, input: I, options: RunOptions): Promise<Success<I['kind']>> {
   const { deadlineMs, retryAfterS } = options;
@@ -59,21 +60,20 @@ function fromPoolFailure(err: unknown, input: TaskInput, { deadlineMs, retryAfte
     return unavailable('ERR_OVERLOADED', `the server is busy: this request waited ${Math.round(err.waitedMs)} ms for a worker and ran out of its ${deadlineMs} ms deadline; retry after ${retryAfterS} s`, retryAfterS);
   }
   if (err instanceof PoolError) {
-    const busy = poolErrorAnswer(err, retryAfterS);
-    if (busy) return busy;
-    // what is left: a worker that stopped while running this task
-    log.error({ task: input.kind, err }, 'a worker stopped while running a task');
-    return new HttpError('ERR_INTERNAL', 'Internal Server Error');
+    if (err.kind === 'worker_crashed') log.error({ task: input.kind, err }, 'a worker stopped while running a task; it was replaced');
+    return poolErrorAnswer(err, retryAfterS);
   }
   log.error({ err }, 'unexpected pool failure');
   return new HttpError('ERR_INTERNAL', 'Internal Server Error');
 }
 
 /**
- * The 503 for a pool that cannot take work (queue full, shutting down, no workers), or null for
- * a crashed worker, which the caller answers as it sees fit. Shared by every route on the pool.
+ * The 503 for a pool that cannot take work (queue full, shutting down, no workers) or whose
+ * worker died under the task (the pool has replaced it, so the same request can succeed on a
+ * retry; what killed the worker is logged by the caller, never shown). Shared by every route on
+ * the pool.
  */
-export function poolErrorAnswer(err: PoolError, retryAfterS: number): HttpError | null {
+export function poolErrorAnswer(err: PoolError, retryAfterS: number): HttpError {
   switch (err.kind) {
     case 'queue_full':
       return unavailable('ERR_OVERLOADED', `the server is busy: ${err.message}; retry after ${retryAfterS} s`, retryAfterS);
@@ -81,7 +81,7 @@ export function poolErrorAnswer(err: PoolError, retryAfterS: number): HttpError 
       return unavailable('ERR_SHUTTING_DOWN', 'the server is shutting down; retry on another replica', retryAfterS);
     case 'unavailable':
       return unavailable('ERR_UNAVAILABLE', 'no generation workers are running on this server', retryAfterS);
-    default:
-      return null;
+    case 'worker_crashed':
+      return unavailable('ERR_WORKER_CRASHED', `the worker thread making this answer stopped unexpectedly and was replaced; retry after ${retryAfterS} s`, retryAfterS);
   }
 }

@@ -16,4 +16,4 @@ export function errorResponse(description: string) {
 }
 
 /** The 503 every route that uses the worker pool may answer. */
-export const OVERLOADED_503 = errorResponse('ERR_OVERLOADED (queue full, or the deadline ran out while waiting), ERR_SHUTTING_DOWN, ERR_NOT_READY or ERR_UNAVAILABLE; the Retry-After header says when to try again.');
+export const OVERLOADED_503 = errorResponse('ERR_OVERLOADED (queue full, or the deadline ran out while waiting), ERR_SHUTTING_DOWN, ERR_NOT_READY, ERR_UNAVAILABLE or ERR_WORKER_CRASHED (the worker died under the request and was replaced); the Retry-After header says when to try again.');

@@ -90,6 +90,37 @@ describe('POST /v1/batches', () => {
     expect((lines[0] as { issues: unknown }).issues).toEqual([{ path: 'reference.tracks.0.shape', message: 'shape value 0 is not a finite number.' }]);
   });
 
+  it('startIndex: the lines of a resumed batch are the tail of the uninterrupted one, byte for byte, and its manifest holds that tail', async () => {
+    const body = { count: 6, baseSeed: 'larkspur-resume', params: SHORT };
+    const whole = await batch(body);
+    const tail = await batch({ ...body, startIndex: 4 });
+    expect(whole.status).toBe(200);
+    expect(tail.status).toBe(200);
+    const wholeLines = whole.raw.split('\n');
+    const tailLines = tail.raw.split('\n');
+    expect(tailLines.slice(0, 2)).toEqual(wholeLines.slice(4, 6));
+    const wholeManifest = whole.lines.at(-1) as Manifest;
+    const tailManifest = tail.lines.at(-1) as Manifest;
+    expect(tailManifest.tracks).toEqual(wholeManifest.tracks.slice(4));
+    expect(tailManifest.request).toEqual(wholeManifest.request);
+    expect(manifestSchema.safeParse(tailManifest).success).toBe(true);
+  });
+
+  it('startIndex with minNovelty: the tracks already received, added to reference, give the same tail', async () => {
+    const body = { count: 5, baseSeed: 'larkspur-resume-novel', params: SHORT, detail: 'summary', minNovelty: 0.5 };
+    const whole = (await batch(body)).lines.at(-1) as Manifest;
+    // the test means something only if novelty turned draws away
+    expect(whole.skipped.novelty).toBeGreaterThan(0);
+    const tail = (await batch({ ...body, startIndex: 3, reference: { tracks: whole.tracks.slice(0, 3) } })).lines.at(-1) as Manifest;
+    expect(tail.tracks).toEqual(whole.tracks.slice(3));
+  });
+
+  it('400 for a startIndex that is not below count', async () => {
+    const { status, lines } = await batch({ count: 3, startIndex: 3 });
+    expect(status).toBe(400);
+    expect((lines[0] as { issues: unknown }).issues).toEqual([{ path: 'startIndex', message: 'expected a track index below count (3), got 3: a batch resumes at the index after the last track it sent' }]);
+  });
+
   it('422 when the first track finds no feasible draw, with the last draw\'s reason and hint', async () => {
     const { status, lines } = await batch({ count: 3, params: { turnBalance: 0, curvatureBudgetDeg: 900, cornerCount: 9 } });
     expect(status).toBe(422);
@@ -146,7 +177,7 @@ describe('POST /v1/batches over loopback', () => {
     expect(gauge.held).toBe(0);
   });
 
-  it('a batch cut short (the server shutting down) ends with an error line', async () => {
+  it('a batch cut short (the server shutting down) ends with one complete line: the error, where to resume, the manifest of what was sent', async () => {
     const res = await fetch(`${url}/v1/batches`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ count: 60, baseSeed: 3, params: SHORT, detail: 'summary' }) });
     const reader = res.body!.getReader();
     const first = await reader.read();
@@ -158,10 +189,16 @@ describe('POST /v1/batches over loopback', () => {
       text += new TextDecoder().decode(value);
     }
     app.lapwright.shuttingDown = false;
+    expect(text.endsWith('\n')).toBe(true);
     const lines = text.trimEnd().split('\n').map((l) => JSON.parse(l));
-    const last = lines.at(-1) as { error: { code: string; statusCode: number } };
+    const last = lines.at(-1) as { error: { code: string; statusCode: number }; resume: unknown; manifest: Manifest };
+    const sent = lines.slice(0, -1) as ManifestTrack[];
     expect(last.error).toMatchObject({ statusCode: 503, code: 'ERR_SHUTTING_DOWN' });
     expect(lines.length).toBeLessThan(61);
-    for (const line of lines.slice(0, -1)) expect((line as ManifestTrack).id).toMatch(/^[0-9a-f]{64}$/);
+    for (const line of sent) expect(line.id).toMatch(/^[0-9a-f]{64}$/);
+    expect(last.resume).toEqual({ baseSeed: 3, startIndex: sent.length, lastIndex: sent.length - 1, lastSeed: sent.at(-1)!.seed });
+    expect(manifestSchema.safeParse(last.manifest).success).toBe(true);
+    expect(last.manifest.tracks).toEqual(sent);
+    expect(last.manifest.request).toMatchObject({ count: 60, baseSeed: 3 });
   });
 });

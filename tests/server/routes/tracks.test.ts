@@ -521,9 +521,13 @@ describe('deadline, overload and worker failure (fixture worker)', () => {
     await expect.poll(() => slow.lapwright.pool?.stats().up, { timeout: 30_000 }).toBe(1);
   });
 
-  it('500 Internal Server Error, without detail, when a worker dies under a request', async () => {
+  it('503 ERR_WORKER_CRASHED with Retry-After, without the cause, when a worker dies under a request', async () => {
     const res = await slow.inject({ method: 'POST', url: '/v1/tracks', payload: { seed: 'crash' } });
-    expect([res.statusCode, json(res)]).toEqual([500, { statusCode: 500, code: 'ERR_INTERNAL', error: 'Internal Server Error', message: 'Internal Server Error' }]);
+    expect([res.statusCode, res.headers['retry-after'], json(res)]).toEqual([
+      503,
+      '2',
+      { statusCode: 503, code: 'ERR_WORKER_CRASHED', error: 'Service Unavailable', message: 'the worker thread making this answer stopped unexpectedly and was replaced; retry after 2 s' },
+    ]);
     expect(res.body).not.toContain('crashed on purpose');
   });
 });
