@@ -72,8 +72,12 @@ export interface ServerConfig {
   readonly app: ResolvedAppOptions;
 }
 
-/** Queue length per worker when maxQueue is not set. */
-export const QUEUE_PER_WORKER = 16;
+/**
+ * Queue length per worker when maxQueue is not set: room for a farm's clients, each with one
+ * request outstanding, plus the slots of batches in flight (50 clients and a few batches on 2
+ * workers reach 63 waiting in npm run load); every wait is still bounded by the deadline.
+ */
+export const QUEUE_PER_WORKER = 64;
 
 /** Default values (workers and maxQueue depend on the machine; see resolveAppOptions). */
 export const APP_DEFAULTS = {

@@ -12,7 +12,7 @@ describe('readServerConfig', () => {
       shutdownTimeoutMs: 30_000,
       app: {
         workers,
-        maxQueue: 16 * workers,
+        maxQueue: 64 * workers,
         deadlineMs: 10_000,
         bodyLimitBytes: 1_048_576,
         trackBodyLimitBytes: 4_194_304,
