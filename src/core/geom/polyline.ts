@@ -96,14 +96,16 @@ export function pointInPolygon(px: number, py: number, coords: Float64Array): 1 
  */
 export function pointSegmentDistance(px: number, py: number, ax: number, ay: number, bx: number, by: number): number {
   // measure from the lexicographically smaller end, so [a, b] and [b, a] round identically
-  if (ax > bx || (ax === bx && ay > by)) return pointSegmentDistance(px, py, bx, by, ax, ay);
-  const ex = bx - ax;
-  const ey = by - ay;
+  // (swapped in place rather than by a recursive call, so that the function inlines)
+  let ux = ax, uy = ay, vx = bx, vy = by;
+  if (ax > bx || (ax === bx && ay > by)) (ux = bx), (uy = by), (vx = ax), (vy = ay);
+  const ex = vx - ux;
+  const ey = vy - uy;
   const len2 = ex * ex + ey * ey;
-  if (len2 === 0) return dist(px, py, ax, ay);
+  if (len2 === 0) return dist(px, py, ux, uy);
   // parameter of the foot of the perpendicular, clamped onto the segment
-  const t = Math.min(1, Math.max(0, ((px - ax) * ex + (py - ay) * ey) / len2));
-  return dist(px, py, ax + t * ex, ay + t * ey);
+  const t = Math.min(1, Math.max(0, ((px - ux) * ex + (py - uy) * ey) / len2));
+  return dist(px, py, ux + t * ex, uy + t * ey);
 }
 
 /**

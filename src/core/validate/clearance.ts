@@ -109,32 +109,43 @@ export function checkClearance(input: ClearanceInput): ClearanceResult {
     return { minGapM: scan.minGap, violations: scan.violations };
   }
   // measuring: chunk pairs by a lower bound of their gap (box distance less both reaches), in
-  // rounds of a doubling bound; once the smallest gap found is below a round's bound, no pair
-  // left can hold a smaller one (branch and bound)
+  // order of that bound (a counting sort into BOUND_STEP_M buckets), stopping once the bound
+  // reaches the smallest gap found: no pair left can hold a smaller one (branch and bound)
+  const limit = marginM + beyond;
   const pairA: number[] = [];
   const pairB: number[] = [];
-  const bound: number[] = [];
+  const bucketOf: number[] = [];
+  const buckets = Math.ceil(limit / BOUND_STEP_M) + 2;
+  const bucketSize = new Int32Array(buckets + 1);
   for (let a = 0; a < chunks; a++) {
     const aFrom = a * CHUNK, aTo = Math.min(n, aFrom + CHUNK);
-    const q = chunkReach[a] + reachMax + marginM + beyond;
+    const q = chunkReach[a] + reachMax + limit;
     for (const b of index.search(box[4 * a] - q, box[4 * a + 1] - q, box[4 * a + 2] + q, box[4 * a + 3] + q)) {
       if (farthestAlongLap(s, aFrom, aTo - 1, b * CHUNK, Math.min(n, (b + 1) * CHUNK), n, lapLengthM) <= exemptM) continue;
       const lower = boxDistance(box, a, b) - chunkReach[a] - segmentReach[b];
-      if (lower >= marginM + beyond) continue;
+      if (lower >= limit) continue;
+      // bucket 0 holds bounds <= 0, bucket k >= 1 bounds in ((k - 1)·step, k·step]
+      const k = lower <= 0 ? 0 : Math.min(buckets - 1, Math.ceil(lower / BOUND_STEP_M));
       pairA.push(a);
       pairB.push(b);
-      bound.push(lower);
+      bucketOf.push(k);
+      bucketSize[k + 1]++;
     }
   }
-  let done = -Infinity;
-  for (let step = 1; done < marginM + Math.max(0, scan.minGap); step *= 2) {
-    const upTo = Math.min(marginM + step, marginM + beyond);
-    for (let k = 0; k < bound.length; k++) if (bound[k] >= done && bound[k] < upTo) scanChunkPair(scan, pairA[k], pairB[k], box, reachMax);
-    done = upTo;
-    if (upTo >= marginM + beyond) break;
+  for (let k = 0; k < buckets; k++) bucketSize[k + 1] += bucketSize[k];
+  const order = new Int32Array(pairA.length);
+  const fill = bucketSize.slice(0, buckets);
+  for (let p = 0; p < pairA.length; p++) order[fill[bucketOf[p]]++] = p;
+  for (let k = 0; k < buckets; k++) {
+    // every bound in bucket k exceeds (k - 1)·step
+    if (k >= 1 && (k - 1) * BOUND_STEP_M >= marginM + Math.max(0, scan.minGap)) break;
+    for (let o = bucketSize[k]; o < bucketSize[k + 1]; o++) scanChunkPair(scan, pairA[order[o]], pairB[order[o]], box, reachMax);
   }
   return { minGapM: scan.minGap, violations: scan.violations };
 }
+
+/** Width of the buckets chunk pairs are ordered in by their lower bound, metres. */
+const BOUND_STEP_M = 0.5;
 
 // the state of a clearance scan: inputs, and the smallest gap and violations found so far
 interface PairScan {
