@@ -129,7 +129,7 @@ export interface TrackMetrics {
   readonly sensorCoverage: number;
   /** Share of sensor poses where a ray meets a gate within reach, 0..1. */
   readonly sensorGateCoverage: number;
-  /** Difficulty figure, 0..10 (docs/drivability.md, "Difficulty"). */
+  /** Difficulty figure, 0..10 (README, "Drivability and difficulty", "Difficulty"). */
   readonly difficulty: number;
 }
 

@@ -51,7 +51,7 @@ const DOC = {
   car: `Footprint of the car used to place non-overlapping start poses, metres. Default {lengthM: ${DEFAULTS.car.lengthM}, widthM: ${DEFAULTS.car.widthM}}.`,
   carLengthM: doc('Car length.', METRES, LIMITS.carLengthM, DEFAULTS.car.lengthM),
   carWidthM: doc('Car width.', METRES, LIMITS.carWidthM, DEFAULTS.car.widthM),
-  vehicle: `The vehicle the track is checked for (docs/drivability.md): its tightest turn (wheelbase / tan(maxSteer) + width / 2) bounds the corners, its grip and power give the speed profile, reference lap time and difficulty, and the reference drive laps the track with its footprint. Width and length default to the car's footprint.`,
+  vehicle: `The vehicle the track is checked for (README, "Drivability and difficulty"): its tightest turn (wheelbase / tan(maxSteer) + width / 2) bounds the corners, its grip and power give the speed profile, reference lap time and difficulty, and the reference drive laps the track with its footprint. Width and length default to the car's footprint.`,
   wheelbaseM: doc('Distance between the axles.', METRES, LIMITS.wheelbaseM, DEFAULTS.vehicle.wheelbaseM),
   vehicleWidthM: doc('Vehicle width (the footprint the reference drive keeps off the walls).', METRES, LIMITS.carWidthM, 'car.widthM'),
   vehicleLengthM: doc('Vehicle length (the footprint is centred midway between the axles).', METRES, LIMITS.carLengthM, 'car.lengthM'),

@@ -28,7 +28,7 @@ export const BATCH_DEFAULTS = {
   windowPerWorker: 2,
 } as const;
 
-/** Environment variables of the batch knobs (docs/datasets.md lists them). */
+/** Environment variables of the batch knobs (the README's configuration table lists them). */
 export const BATCH_ENV_VARS = {
   maxCount: { name: 'LAPWRIGHT_BATCH_MAX_COUNT', meaning: 'most tracks one POST /v1/batches may ask for', defaultText: String(BATCH_DEFAULTS.maxCount), min: 1, max: 1_048_576 },
   bodyLimitBytes: { name: 'LAPWRIGHT_BATCH_BODY_LIMIT_BYTES', meaning: 'largest body of POST /v1/batches and POST /v1/tracks/distance, bytes', defaultText: `${BATCH_DEFAULTS.bodyLimitBytes} (32 MiB)`, min: 1024, max: 1024 ** 3 },

@@ -1,4 +1,4 @@
-// docs/datasets.md keeps up with the code: the batch knobs, the commands' flags, the split's definition.
+// the README's training-farm section keeps up with the code: the batch knobs, the commands' flags, the split's definition.
 
 import { readFile } from 'node:fs/promises';
 import { describe, expect, it } from 'vitest';
@@ -6,9 +6,9 @@ import { batchHelp, verifyHelp } from '../../src/cli/help.js';
 import { SPLIT_KEY, SPLIT_SHARES } from '../../src/core/index.js';
 import { BATCH_ENV_VARS } from '../../src/server/batch-options.js';
 
-const DOC = new URL('../../docs/datasets.md', import.meta.url);
+const DOC = new URL('../../README.md', import.meta.url);
 
-describe('docs/datasets.md', () => {
+describe('README, training-farm workflows', () => {
   it('lists every batch environment variable with its default and meaning', async () => {
     const text = await readFile(DOC, 'utf8');
     for (const v of Object.values(BATCH_ENV_VARS)) expect(text).toContain(`| \`${v.name}\` | ${v.defaultText} | ${v.meaning} |`);

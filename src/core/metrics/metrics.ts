@@ -5,7 +5,7 @@ import type { Corner, TrackMetrics } from '../track.js';
 /** Weights of the three difficulty terms (they add to 1). */
 export const DIFFICULTY_WEIGHTS = { pace: 0.6, tightness: 0.25, narrowness: 0.15 } as const;
 
-/** What the difficulty figure is made of (docs/drivability.md, "Difficulty"). */
+/** What the difficulty figure is made of (README, "Drivability and difficulty", "Difficulty"). */
 export interface DifficultyFigures {
   readonly lengthM: number;
   /** Lap time of the friction-limited speed profile, seconds. */
@@ -19,7 +19,7 @@ export interface DifficultyFigures {
 }
 
 /**
- * Difficulty on 0..10 (docs/drivability.md, "Difficulty"):
+ * Difficulty on 0..10 (README, "Drivability and difficulty", "Difficulty"):
  *   D = 10 · (0.6 · P + 0.25 · C + 0.15 · N)
  *   P = 1 − (L / v_top) / T_ref    share of the lap time lost to corners and braking
  *   C = min(1, R_vehicle / R_min)  how near the tightest corner comes to full lock
