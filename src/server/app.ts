@@ -13,6 +13,7 @@ import { readPackageVersion } from '../version.js';
 import { type AppOptions, type ResolvedAppOptions, resolveAppOptions } from './config.js';
 import { handleError, handleNotFound } from './error-handler.js';
 import { HttpError, unavailable } from './errors.js';
+import { jsonDepthExceeds, MAX_JSON_DEPTH } from './json-depth.js';
 import { TrackPool } from './pool/track-pool.js';
 import { batchRoutes, DATASETS_TAG } from './routes/batches.js';
 import { curriculumRoutes } from './routes/curricula.js';
@@ -140,12 +141,13 @@ export const lapwrightService: FastifyPluginAsync<ResolvedAppOptions> = async (a
   await app.register(webRoutes);
 };
 
-// JSON only, parsed safely (no __proto__ or constructor.prototype keys); text/plain is refused
+// JSON only, parsed safely (no __proto__ or constructor.prototype keys, no deep nesting); text/plain is refused
 function installParsers(app: FastifyInstance): void {
   app.removeAllContentTypeParsers();
   app.addContentTypeParser('application/json', { parseAs: 'string' }, (_request, body, done) => {
     const text = body as string;
     if (text.length === 0) return done(emptyBody(), undefined);
+    if (jsonDepthExceeds(text, MAX_JSON_DEPTH)) return done(tooDeep(), undefined);
     try {
       done(null, sjson.parse(text, { protoAction: 'error', constructorAction: 'error' }));
     } catch (err) {
@@ -178,6 +180,11 @@ function pruneComponents<D extends object>(document: D): D {
   const kept = Object.fromEntries(Object.entries(schemas).filter(([name]) => used.has(name)));
   const components = (document as { components?: object }).components;
   return { ...document, components: { ...components, schemas: kept } };
+}
+
+function tooDeep(): HttpError {
+  const message = `nests arrays and objects more than ${MAX_JSON_DEPTH} levels deep`;
+  return new HttpError('ERR_INVALID_JSON', `request body ${message}; a whole track nests 5`, { issues: [{ path: '(root)', message }] });
 }
 
 function emptyBody(): HttpError {

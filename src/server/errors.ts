@@ -13,7 +13,7 @@ import type { FieldIssue } from '../schema/issues.js';
 export const HTTP_ERRORS = {
   ERR_INVALID_PARAMS: { status: ERROR_CODES.ERR_INVALID_PARAMS.status, meaning: 'track parameters, seed or query string malformed: every offending field is listed in issues' },
   ERR_INVALID_TRACK: { status: ERROR_CODES.ERR_INVALID_TRACK.status, meaning: 'uploaded track malformed (wrong types, missing fields): every offending field is listed in issues' },
-  ERR_INVALID_JSON: { status: 400, meaning: 'request body is not JSON' },
+  ERR_INVALID_JSON: { status: 400, meaning: 'request body is not JSON, or nests arrays and objects more than 64 levels deep' },
   ERR_BAD_REQUEST: { status: 400, meaning: 'request malformed at the HTTP level (bad Content-Length, URL encoding)' },
   ERR_UNAUTHORIZED: { status: 401, meaning: 'the server has an API token and the request did not send it as Authorization: Bearer ... (or sent another)' },
   ERR_NOT_FOUND: { status: 404, meaning: 'no such route' },
