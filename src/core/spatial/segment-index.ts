@@ -140,8 +140,9 @@ export class SegmentIndex {
     }
     let extent = 0;
     for (let i = 0; i < n; i++) extent += Math.max(b[4 * i + 2] - b[4 * i], b[4 * i + 3] - b[4 * i + 1]);
-    // cells no smaller than a typical segment, and few enough that there are O(n) of them
-    const cell = Math.max(extent / n, Math.sqrt((w / n) * h), Math.max(w, h) / n);
+    // cells about two typical segments wide, and at most ~4n of them: a track fills a thin band
+    // of its bounding box, so cells sized to the box (w·h/n each) would hold dozens of segments
+    const cell = Math.max((2 * extent) / n, Math.sqrt((w / n) * h / 4), Math.max(w, h) / n);
     // all segments at one point: any positive cell side gives a single cell
     this.inv = cell > 0 ? 1 / cell : 1;
     this.cols = Math.floor(w * this.inv) + 1;
