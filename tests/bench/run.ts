@@ -6,6 +6,7 @@
 // distance (Arkin et al. 1991) of 50 tracks drawn for the median real permanent circuit (4.6 km,
 // 1570°, 15 corners, 40% minority).
 
+import { spawnSync } from 'node:child_process';
 import { writeFileSync } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
 import { buildRoadStrip } from '../../src/core/drive/road-strip.js';
@@ -20,6 +21,9 @@ import type { Track } from '../../src/core/track.js';
 import { validateTrack } from '../../src/core/validate/index.js';
 
 const quick = process.argv.includes('--quick');
+// the dataset figures (tests/bench/batch.ts: lapwright batch with 1 and 2 workers, streamed HTTP
+// batch) follow unless --quick or --no-batch
+const withBatch = !quick && !process.argv.includes('--no-batch');
 // --write FILE: also write the figures as a Markdown page (docs/benchmarks.md)
 const writeTo = process.argv.includes('--write') ? process.argv[process.argv.indexOf('--write') + 1] : undefined;
 
@@ -156,6 +160,15 @@ for (let i = 0; i < sigs.length; i++) for (let j = i + 1; j < sigs.length; j++) 
 d.sort((a, b) => a - b);
 say(`variety, 50 circuits (4.6 km, 1570°, 15 corners, 0.4): median pairwise turning distance ${d[d.length >> 1].toFixed(3)} (p10 ${d[Math.floor(0.1 * d.length)].toFixed(3)}, p90 ${d[Math.floor(0.9 * d.length)].toFixed(3)}); real circuits 1.20, target >= 1.0`);
 
+let batchLines: string[] = [];
+if (withBatch) {
+  console.log('dataset throughput (tests/bench/batch.ts):');
+  const batch = spawnSync(process.execPath, ['--import', 'tsx', 'tests/bench/batch.ts'], { cwd: new URL('../../', import.meta.url), encoding: 'utf8', stdio: ['ignore', 'pipe', 'inherit'] });
+  batchLines = batch.stdout.trimEnd().split('\n').filter((l) => l.length > 0);
+  for (const l of batchLines) console.log(l);
+  if (batch.status !== 0) throw new Error(`tests/bench/batch.ts exited ${batch.status}`);
+}
+
 if (writeTo) {
   const cpu = cpus();
   const page = `# Generator benchmark
@@ -169,6 +182,6 @@ Machine: ${cpu.length} × ${cpu[0]?.model ?? 'unknown CPU'}, Node ${process.vers
 \`\`\`
 ${lines.join('\n')}
 \`\`\`
-`;
+${batchLines.length > 0 ? `\nDataset throughput (tests/bench/batch.ts, run by \`npm run bench\` after the generator figures):\n\n\`\`\`\n${batchLines.join('\n')}\n\`\`\`\n` : ''}`;
   writeFileSync(writeTo, page);
 }
