@@ -127,7 +127,7 @@ export const ENV_VARS = {
   trackBodyLimitBytes: { name: 'LAPWRIGHT_TRACK_BODY_LIMIT_BYTES', meaning: 'largest body of POST /v1/tracks/validate, bytes', defaultText: `${APP_DEFAULTS.trackBodyLimitBytes} (4 MiB)`, min: 1024, max: 1024 ** 3 },
   retryAfterS: { name: 'LAPWRIGHT_RETRY_AFTER_S', meaning: 'seconds a 503 asks the client to wait (Retry-After)', defaultText: String(APP_DEFAULTS.retryAfterS), min: 0, max: 3600 },
   shutdownTimeoutMs: { name: 'LAPWRIGHT_SHUTDOWN_TIMEOUT_MS', meaning: 'after SIGTERM, longest wait for in-flight requests, ms', defaultText: String(SERVER_DEFAULTS.shutdownTimeoutMs), min: 0, max: 3_600_000 },
-  corsOrigins: { name: 'LAPWRIGHT_CORS_ORIGINS', meaning: 'origins a browser page may call the API from: comma-separated (https://a.example,http://localhost:5173), or * for any', defaultText: 'none (CORS off)' },
+  corsOrigins: { name: 'LAPWRIGHT_CORS_ORIGINS', meaning: 'origins a browser page may call the API from, comma-separated (such as https://sim.example.org), or * for any', defaultText: 'none (CORS off)' },
   apiToken: { name: 'LAPWRIGHT_API_TOKEN', meaning: `when set, every /v1 request must send it as Authorization: Bearer ... (401 otherwise); ${API_TOKEN_CHARS.min} to ${API_TOKEN_CHARS.max} characters of A-Z a-z 0-9 - . _ ~ + /`, defaultText: 'none (no token needed)' },
   rateLimitMax: { name: 'LAPWRIGHT_RATE_LIMIT_MAX', meaning: 'requests per client IP per window before 429 + Retry-After (/healthz and /readyz exempt); 0 = no limit', defaultText: '0 (off)', min: 0, max: 1_000_000_000 },
   rateLimitWindowMs: { name: 'LAPWRIGHT_RATE_LIMIT_WINDOW_MS', meaning: 'length of the rate-limit window, ms', defaultText: String(APP_DEFAULTS.rateLimitWindowMs), min: 1000, max: 86_400_000 },

@@ -172,7 +172,7 @@ async function installRateLimit(app: FastifyInstance, options: ResolvedAppOption
     timeWindow: options.rateLimitWindowMs,
     allowList: (request: FastifyRequest) => (RATE_LIMIT_EXEMPT as readonly string[]).includes(request.routeOptions.url ?? ''),
     errorResponseBuilder: (_request, context) =>
-      new HttpError('ERR_RATE_LIMITED', `more than ${context.max} requests from this client in ${windowText}: retry in ${Math.ceil(context.ttl / 1000)} s (Retry-After)`),
+      new HttpError('ERR_RATE_LIMITED', `more than ${context.max} request${context.max === 1 ? '' : 's'} from this client in ${windowText}: retry in ${Math.ceil(context.ttl / 1000)} s (Retry-After)`),
   });
 }
 
