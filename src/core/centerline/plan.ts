@@ -26,6 +26,8 @@ export function plannedMinRadiusM(minCornerRadiusM: number): number {
 
 /** Orderings of the corners tried per attempt before the attempt is given up. */
 export const ORDER_DRAWS = 4;
+/** Corner count up to which the ordering band keeps its full width (100–200°). */
+export const BAND_CORNERS = 15;
 /** Draws of straight-length wishes per ordering; the first whose outline keeps its distance is kept. */
 export const WISH_DRAWS = 8;
 /** Log-normal spread of the straights between features (a few long, many short). */
@@ -81,7 +83,10 @@ export function planLap(p: TrackParams, split: TurnSplit, rng: Rng, noise: LoopN
 // one ordering of the corners, its angles, shapes and radii, then the straights
 function planOnce(p: TrackParams, rng: Rng, noise: LoopNoise, loopSign: 1 | -1, majorCount: number, minorCount: number, majorTotal: number, minorTotal: number): Plan | null {
 
-  const draft = orderFeatures(rng, majorCount, minorCount, uniform(rng, 100, 200) * DEG, majorTotal / Math.max(1, majorCount), minorCount > 0 ? minorTotal / minorCount : 0);
+  // the band narrows as 1/√n beyond BAND_CORNERS corners: the running turn of many corners
+  // strays like a random walk, and wide strays make long laps fold over themselves
+  const band = uniform(rng, 100, 200) * DEG * Math.min(1, Math.sqrt(BAND_CORNERS / (majorCount + minorCount)));
+  const draft = orderFeatures(rng, majorCount, minorCount, band, majorTotal / Math.max(1, majorCount), minorCount > 0 ? minorTotal / minorCount : 0);
   if (draft === null) return null;
   const n = draft.signs.length;
   // the draft says major (+1) or minor (-1); the loop's direction turns that into left or right
