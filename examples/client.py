@@ -1,8 +1,9 @@
 """A lapwright client using only the Python standard library (urllib, json).
 
-Drop this file into a training script: it has no dependencies. 503 answers are retried after
-their Retry-After header, a few times; every other error raises LapwrightError with the
-service's code, message and issues.
+Drop this file into a training script: it has no dependencies. 503 (busy) and 429 (rate
+limited) answers are retried after their Retry-After header, a few times; every other error
+raises LapwrightError with the service's code, message and issues. A server with an API token
+gets it from the token argument or the LAPWRIGHT_API_TOKEN environment variable.
 
     python3 examples/client.py [--url http://127.0.0.1:8080]
 
@@ -43,10 +44,12 @@ class LapwrightClient:
     >>> track = client.track({"seed": "larkspur-heldout-0042", "lengthM": 3000})
     """
 
-    def __init__(self, base_url="http://127.0.0.1:8080", retries=5, timeout_s=60.0):
+    def __init__(self, base_url="http://127.0.0.1:8080", retries=5, timeout_s=60.0, token=None):
         self.base = base_url.rstrip("/")
         self.retries = retries
         self.timeout_s = timeout_s
+        # API token of a server that requires one (default: the LAPWRIGHT_API_TOKEN variable)
+        self.token = token if token is not None else (os.environ.get("LAPWRIGHT_API_TOKEN") or None)
 
     def health(self):
         """GET /healthz: {status, version, generatorVersion}."""
@@ -75,6 +78,8 @@ class LapwrightClient:
         headers = {"Accept": "application/json"}
         if data is not None:
             headers["Content-Type"] = "application/json"
+        if self.token:
+            headers["Authorization"] = "Bearer " + self.token
         attempt = 0
         while True:
             request = urllib.request.Request(self.base + path, data=data, headers=headers, method=method)
@@ -83,7 +88,8 @@ class LapwrightClient:
                     return json.loads(response.read().decode("utf-8"))
             except urllib.error.HTTPError as err:
                 text = err.read().decode("utf-8", "replace")
-                if err.code == 503 and attempt < self.retries:
+                # 503: the service is busy; 429: this client is over the rate limit
+                if err.code in (503, 429) and attempt < self.retries:
                     # the service says when to come back; wait at least that, a little more each time
                     try:
                         after = float(err.headers.get("Retry-After", "1"))

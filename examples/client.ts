@@ -1,7 +1,9 @@
 /**
  * A small lapwright client using only fetch (Node 20+, Deno, browsers). Copy it into a training
- * harness; it has no dependencies. 503 answers are retried after their Retry-After, a few times;
- * every other error becomes a LapwrightError with the service's code, message and issues.
+ * harness; it has no dependencies. 503 (busy) and 429 (rate limited) answers are retried after
+ * their Retry-After, a few times; every other error becomes a LapwrightError with the service's
+ * code, message and issues. A server with an API token gets it from the `token` option or the
+ * LAPWRIGHT_API_TOKEN environment variable.
  *
  *   node --import tsx examples/client.ts [http://127.0.0.1:8080]
  * fetches the presets and one track of each (the Larkspur sim team's nightly curriculum).
@@ -70,8 +72,10 @@ export class LapwrightError extends Error {
 }
 
 export interface ClientOptions {
-  /** 503 answers retried at most this many times (default 5). */
+  /** 503 and 429 answers retried at most this many times (default 5). */
   retries?: number;
+  /** API token of a server that requires one (default: the LAPWRIGHT_API_TOKEN environment variable). */
+  token?: string;
   /** Longest wait for one answer, ms (default 60 s). */
   timeoutMs?: number;
 }
@@ -85,11 +89,13 @@ export class LapwrightClient {
   private readonly base: string;
   private readonly retries: number;
   private readonly timeoutMs: number;
+  private readonly token: string | undefined;
 
   constructor(baseUrl: string, options: ClientOptions = {}) {
     this.base = baseUrl.replace(/\/+$/, '');
     this.retries = options.retries ?? 5;
     this.timeoutMs = options.timeoutMs ?? 60_000;
+    this.token = options.token ?? (envToken() || undefined);
   }
 
   /** GET /healthz. */
@@ -120,15 +126,19 @@ export class LapwrightClient {
 
   private async json<T>(method: string, path: string, body?: unknown): Promise<T> {
     for (let attempt = 0; ; attempt++) {
+      const headers: Record<string, string> = { accept: 'application/json' };
+      if (body !== undefined) headers['content-type'] = 'application/json';
+      if (this.token !== undefined) headers.authorization = `Bearer ${this.token}`;
       const res = await fetch(`${this.base}${path}`, {
         method,
-        headers: body === undefined ? { accept: 'application/json' } : { accept: 'application/json', 'content-type': 'application/json' },
+        headers,
         body: body === undefined ? undefined : JSON.stringify(body),
         signal: AbortSignal.timeout(this.timeoutMs),
       });
       if (res.ok) return (await res.json()) as T;
       const text = await res.text();
-      if (res.status === 503 && attempt < this.retries) {
+      // 503: the service is busy; 429: this client is over the rate limit. Both say when to come back
+      if ((res.status === 503 || res.status === 429) && attempt < this.retries) {
         // the service says when to come back; wait at least that, a little more each time
         const after = Number(res.headers.get('retry-after') ?? '1');
         await new Promise((r) => setTimeout(r, (Number.isFinite(after) ? after : 1) * 1000 * (1 + attempt / 2)));
@@ -143,6 +153,11 @@ export class LapwrightClient {
       throw new LapwrightError(res.status, parsed);
     }
   }
+}
+
+// LAPWRIGHT_API_TOKEN where there is an environment (Node, Deno with --allow-env); none in browsers
+function envToken(): string | undefined {
+  return (globalThis as { process?: { env?: Record<string, string | undefined> } }).process?.env?.LAPWRIGHT_API_TOKEN;
 }
 
 // nested parameters as dotted query keys: { widthM: { min: 8 } } → widthM.min=8

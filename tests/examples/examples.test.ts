@@ -7,7 +7,7 @@ import { spawn, spawnSync } from 'node:child_process';
 import { readdir, readFile } from 'node:fs/promises';
 import { fileURLToPath } from 'node:url';
 import type { FastifyInstance } from 'fastify';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { parseAllDocuments } from 'yaml';
 import { LapwrightClient, LapwrightError } from '../../examples/client.js';
 import { generateTrack, isInfeasibleError } from '../../src/core/index.js';
@@ -57,6 +57,58 @@ describe('examples/client.ts', () => {
     const bad = await client.track({ lengthM: 1 }).catch((e: unknown) => e);
     expect(bad).toMatchObject({ status: 400, code: 'ERR_INVALID_PARAMS', issues: [{ path: 'lengthM', message: 'expected a number from 300 to 20000 m, got 1' }] });
   });
+});
+
+describe('examples/client.ts against a server with an API token and a rate limit', () => {
+  it('sends the token it is given, and without it gets the 401 as a LapwrightError', async () => {
+    const token = 'larkspur-farm-token-0001';
+    const guarded = await readyApp({ workers: 1, apiToken: token });
+    try {
+      const at = await guarded.listen({ port: 0, host: '127.0.0.1' });
+      expect((await new LapwrightClient(at, { token }).presets()).length).toBe(PRESETS.length);
+      const err = await new LapwrightClient(at, { token: 'not-the-farm-token-0001' }).presets().catch((e: unknown) => e);
+      expect(err).toBeInstanceOf(LapwrightError);
+      expect((err as LapwrightError).status).toBe(401);
+      expect((err as LapwrightError).code).toBe('ERR_UNAUTHORIZED');
+      if (hasPython) {
+        // the Python client takes the token from LAPWRIGHT_API_TOKEN
+        const withToken = await run('python3', [`${EXAMPLES}client.py`, '--url', at], { LAPWRIGHT_API_TOKEN: token });
+        expect(withToken.stderr).toBe('');
+        expect(withToken.code).toBe(0);
+        const without = await run('python3', [`${EXAMPLES}client.py`, '--url', at], { LAPWRIGHT_API_TOKEN: '' });
+        expect(without.code).toBe(1);
+        expect(without.stderr).toMatch(/401 ERR_UNAUTHORIZED/);
+      }
+    } finally {
+      await guarded.close();
+    }
+  }, 120_000);
+
+  it('waits out a 429 for its Retry-After and then gets its answer', async () => {
+    // 2 requests per 1 s window: the third is refused with Retry-After 1, retried, and answered
+    const limited = await readyApp({ workers: 1, rateLimitMax: 2, rateLimitWindowMs: 1000 });
+    try {
+      const at = await limited.listen({ port: 0, host: '127.0.0.1' });
+      const client = new LapwrightClient(at, { retries: 3 });
+      // the statuses the client saw, read off its fetch calls
+      const statuses: number[] = [];
+      const realFetch = globalThis.fetch;
+      const spy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (...args) => {
+        const res = await realFetch(...args);
+        statuses.push(res.status);
+        return res;
+      });
+      try {
+        for (let i = 0; i < 3; i++) expect((await client.presets()).length).toBe(PRESETS.length);
+      } finally {
+        spy.mockRestore();
+      }
+      expect(statuses).toContain(429);
+      expect(statuses.filter((s) => s === 200)).toHaveLength(3);
+    } finally {
+      await limited.close();
+    }
+  }, 30_000);
 });
 
 describe.skipIf(!hasPython)('examples/client.py', () => {
