@@ -68,6 +68,19 @@ class JsonWriter {
       return;
     }
     const a = x < 0 ? -x : x;
+    if (a >= 1e-3 && a < 1e6) {
+      // most of a track: millimetres (three decimals at most)
+      const m = Math.round(a * 1000);
+      if (m / 1000 === a) {
+        this.reserve(20);
+        if (x < 0) this.bytes[this.length++] = 0x2d;
+        const whole = (m / 1000) | 0;
+        this.unsigned(whole);
+        const milli = m - whole * 1000;
+        if (milli !== 0) this.milli(milli);
+        return;
+      }
+    }
     if (a >= 1e-6 && a < 1e6) {
       const k = Math.round(a * SCALE);
       if (k / SCALE === a && k < MAX_DIGITS_VALUE) {
@@ -99,6 +112,20 @@ class JsonWriter {
       b[--at] = 0x30 + (t - q * 10);
       t = q;
     }
+  }
+
+  // '.' and the three decimals of 0 < f < 1000, trailing zeros dropped
+  private milli(f: number): void {
+    const b = this.bytes;
+    let at = this.length;
+    b[at++] = 0x2e;
+    const d1 = (f / 100) | 0;
+    const d2 = ((f / 10) | 0) % 10;
+    const d3 = f % 10;
+    b[at++] = 0x30 + d1;
+    if (d2 !== 0 || d3 !== 0) b[at++] = 0x30 + d2;
+    if (d3 !== 0) b[at++] = 0x30 + d3;
+    this.length = at;
   }
 
   // '.' and the nine decimals of 0 < f < 1e9 (below 2^31: integer arithmetic), trailing zeros dropped
@@ -159,7 +186,10 @@ class JsonWriter {
     const n = items.length;
     this.byte(0x5b);
     for (let i = 0; i < n; i++) {
-      if (i > 0) this.byte(0x2c);
+      if (i > 0) {
+        this.reserve(1);
+        this.bytes[this.length++] = 0x2c;
+      }
       const item = items[i];
       if (typeof item === 'number') this.number(item);
       else if (item === undefined || typeof item === 'function') this.ascii('null');
