@@ -162,7 +162,7 @@ function readOptions(): Options {
       duration: { type: 'string', default: '60' },
       warmup: { type: 'string', default: '10' },
       connections: { type: 'string', default: '50' },
-      rate: { type: 'string', default: '50' },
+      rate: { type: 'string', default: '100' },
       sample: { type: 'string', default: '200' },
       seed: { type: 'string', default: '1' },
       workers: { type: 'string' },
