@@ -146,7 +146,7 @@ async function main(): Promise<void> {
     console.log(`\n${block.text}`);
     if (options.write !== undefined) {
       mkdirSync(dirname(options.write), { recursive: true });
-      writeFileSync(options.write, `# Load run\n\nMade by \`npm run load${process.argv.slice(2).length > 0 ? ` -- ${process.argv.slice(2).join(' ')}` : ''}\` (tests/load/run.ts); see docs/operations.md for what it does and how to read it.\n\n\`\`\`\n${block.text}\n\`\`\`\n`);
+      writeFileSync(options.write, `# Load run\n\nMade by \`npm run load${process.argv.slice(2).length > 0 ? ` -- ${process.argv.slice(2).join(' ')}` : ''}\` (tests/load/run.ts); the README ("Load, overload and faults") says what it does and how to read it.\n\n\`\`\`\n${block.text}\n\`\`\`\n`);
       console.log(`written to ${options.write}`);
     }
     if (!block.pass) process.exitCode = 1;
