@@ -262,7 +262,15 @@ export class TrackPool {
       job.startedAt = performance.now();
       slot.job = job;
       const message: TaskMessage = { taskId: job.taskId, input: job.input };
-      slot.worker.postMessage(message);
+      try {
+        slot.worker.postMessage(message);
+      } catch (err) {
+        // the input cannot be handed to a thread (not cloneable, or too deep to clone): this task
+        // fails alone, and the worker, which never saw it, stays free for the next one
+        slot.job = null;
+        job.slot = null;
+        this.settle(job, err instanceof Error ? err : new Error(String(err)));
+      }
     }
   }
 

@@ -48,6 +48,16 @@ describe('TrackPool', () => {
     expect(out).toMatchObject({ ok: false, error: { kind: 'infeasible', reason: 'turning_vs_balance', attempts: 0, issues: [] } });
   });
 
+  it('fails a task whose input cannot be handed to a thread, alone: the worker stays free and the next task runs', async () => {
+    const p = pool(1, 4);
+    await p.ready;
+    // a function is not cloneable (HTML structured clone): postMessage throws a DataCloneError
+    const uncloneable = { kind: 'generate', request: { seed: 1, note: () => 1 } } as unknown as Parameters<TrackPool['run']>[0];
+    await expect(p.run(uncloneable, 10_000)).rejects.toMatchObject({ name: 'DataCloneError' });
+    expect(p.stats()).toMatchObject({ busy: 0, queued: 0 });
+    await expect(p.run(block(0), 10_000)).resolves.toMatchObject({ ok: true });
+  });
+
   it('refuses at once when every worker is busy and the queue is full', async () => {
     const p = pool(1, 1);
     await p.ready;
