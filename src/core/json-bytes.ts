@@ -191,8 +191,20 @@ class JsonWriter {
         this.bytes[this.length++] = 0x2c;
       }
       const item = items[i];
-      if (typeof item === 'number') this.number(item);
-      else if (item === undefined || typeof item === 'function') this.ascii('null');
+      if (typeof item === 'number') {
+        // millimetres written here rather than through number(), so the double is not boxed
+        // to be passed to a call
+        const a = item < 0 ? -item : item;
+        const m = Math.round(a * 1000);
+        if (a >= 1e-3 && a < 1e6 && m / 1000 === a) {
+          this.reserve(20);
+          if (item < 0) this.bytes[this.length++] = 0x2d;
+          const whole = (m / 1000) | 0;
+          this.unsigned(whole);
+          const milli = m - whole * 1000;
+          if (milli !== 0) this.milli(milli);
+        } else this.number(item);
+      } else if (item === undefined || typeof item === 'function') this.ascii('null');
       else this.value(item);
     }
     this.byte(0x5d);

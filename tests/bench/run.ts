@@ -20,6 +20,7 @@ import type { TrackRequest } from '../../src/core/params/types.js';
 import type { Track } from '../../src/core/track.js';
 import { validateTrack } from '../../src/core/validate/index.js';
 
+const loadAtStart = loadavg()[0];
 const quick = process.argv.includes('--quick');
 // the dataset figures (tests/bench/batch.ts: lapwright batch with 1 and 2 workers, streamed HTTP
 // batch) follow unless --quick or --no-batch
@@ -179,7 +180,7 @@ if (writeTo) {
 
 Written by \`npm run bench -- --write docs/benchmarks.md\` (tests/bench/run.ts). Wall-clock times on
 one core of the machine below, after warm-up; compare figures only between runs on the same
-machine. Load average when the run started: ${loadavg()[0].toFixed(2)} (other work shared the machine).
+machine. Load average when the run started: ${loadAtStart.toFixed(2)} (other work shared the machine).
 
 Machine: ${cpu.length} × ${cpu[0]?.model ?? 'unknown CPU'}, Node ${process.version}.
 
