@@ -109,6 +109,10 @@ function shipTrack(
   const right: Point[] = new Array(n);
   const s: number[] = new Array(n);
   const headingDeg: number[] = new Array(n);
+  // the shipped per-point arrays, filled in the loop (copying typed arrays with Array.from is slow)
+  const curvatureList: number[] = [];
+  const halfLeftList: number[] = [];
+  const halfRightList: number[] = [];
   const leftFace = new Float64Array(2 * n);
   const rightFace = new Float64Array(2 * n);
   const wanted = new Float64Array(n);
@@ -119,6 +123,9 @@ function shipTrack(
     half[i] = h;
     widthM[i] = 2 * h;
     curvature[i] = r6(curve.curvature[i]);
+    curvatureList.push(curvature[i]);
+    halfLeftList.push(h);
+    halfRightList.push(h);
     const x = curve.points[2 * i], y = curve.points[2 * i + 1];
     const nx = curve.normals[2 * i], ny = curve.normals[2 * i + 1];
     leftFace[2 * i] = x + nx * h;
@@ -177,9 +184,9 @@ function shipTrack(
     points,
     s,
     headingDeg,
-    curvature: Array.from(curvature),
-    halfWidthLeftM: Array.from(half),
-    halfWidthRightM: Array.from(half),
+    curvature: curvatureList,
+    halfWidthLeftM: halfLeftList,
+    halfWidthRightM: halfRightList,
   } as const;
   const walls = { heightM: p.wall.heightM, thicknessM: p.wall.thicknessM, left, right };
   // speed profile, reference drive and sensors on the numbers that ship
