@@ -111,7 +111,7 @@ export const lapwrightService: FastifyPluginAsync<ResolvedAppOptions> = async (a
         version: state.version,
         description: `Closed racing tracks for training driving agents in simulation: seeded, validated, reproducible (same seed, parameters and generatorVersion, same bytes). Errors answer { statusCode, code, error, message }, plus issues for 400 and 422, reason and hint for 422, and a Retry-After header on 503. Tracks come as JSON (JSON Schema at GET /v1/schema/track) or exported as glb, svg or csv. A preview page for people, outside this document, is at GET /. Generated layouts are for simulation and games only.`,
       },
-      servers: [{ url: 'http://127.0.0.1:8080', description: 'npm start with the default PORT and HOST' }],
+      servers: [{ url: '/', description: 'the server this document came from (relative, so /docs can try requests wherever the service runs)' }],
       tags: [
         { name: 'tracks', description: 'Generate and check tracks' },
         { name: 'service', description: 'Health, readiness and documentation' },

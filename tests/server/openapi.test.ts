@@ -21,6 +21,9 @@ describe('OpenAPI document', () => {
       const doc = json(res) as { openapi: string; paths: Record<string, Record<string, { responses: Record<string, unknown>; parameters?: { name: string; in: string }[] }>>; components: { schemas: Record<string, unknown> } };
       expect(doc).toEqual(JSON.parse(renderOpenApi(await buildOpenApiDocument())));
       expect(doc.openapi).toBe('3.1.0');
+      // a relative server (OpenAPI 3.1, Server Object: relative to the document's location), so
+      // the interactive documentation sends its requests to the server it was loaded from
+      expect((doc as unknown as { servers: { url: string }[] }).servers.map((s) => s.url)).toEqual(['/']);
       const routes = Object.entries(doc.paths).flatMap(([path, methods]) => Object.entries(methods).map(([method, op]) => `${method.toUpperCase()} ${path} ${Object.keys(op.responses).join(',')}`));
       expect(routes).toEqual([
         'GET /healthz 200',
