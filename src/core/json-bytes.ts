@@ -20,6 +20,24 @@ const SCALE = 1e9;
 const FRACTION_DIGITS = 9;
 const MAX_DIGITS_VALUE = 1e15;
 
+/** Integers below SMALL are written from a table of their digits (4 bytes per number). */
+const SMALL = 10_000;
+const SMALL_DIGITS = new Uint8Array(4 * SMALL);
+const SMALL_LENGTH = new Uint8Array(SMALL);
+/** '.' and the decimals of f / 1000 for 0 < f < 1000, trailing zeros dropped (4 bytes each). */
+const MILLI_TEXT = new Uint8Array(4 * 1000);
+const MILLI_LENGTH = new Uint8Array(1000);
+for (let v = 0; v < SMALL; v++) {
+  const text = String(v);
+  SMALL_LENGTH[v] = text.length;
+  for (let k = 0; k < text.length; k++) SMALL_DIGITS[4 * v + k] = text.charCodeAt(k);
+}
+for (let f = 1; f < 1000; f++) {
+  const text = `.${String(f).padStart(3, '0')}`.replace(/0+$/, '');
+  MILLI_LENGTH[f] = text.length;
+  for (let k = 0; k < text.length; k++) MILLI_TEXT[4 * f + k] = text.charCodeAt(k);
+}
+
 /** A growable byte buffer of ASCII JSON text. */
 class JsonWriter {
   bytes: Uint8Array;
@@ -96,11 +114,15 @@ class JsonWriter {
     this.ascii(String(x));
   }
 
-  // a non-negative integer below 1e6, in decimal
+  // a non-negative integer below 1e6, in decimal (below 10 000 from the table)
   private unsigned(v: number): void {
     const b = this.bytes;
-    if (v < 10) {
-      b[this.length++] = 0x30 + v;
+    if (v < SMALL) {
+      const n = SMALL_LENGTH[v];
+      const from = 4 * v;
+      let at = this.length;
+      for (let k = 0; k < n; k++) b[at++] = SMALL_DIGITS[from + k];
+      this.length = at;
       return;
     }
     let digits = 1;
@@ -114,17 +136,13 @@ class JsonWriter {
     }
   }
 
-  // '.' and the three decimals of 0 < f < 1000, trailing zeros dropped
+  // '.' and the three decimals of 0 < f < 1000, trailing zeros dropped (from the table)
   private milli(f: number): void {
     const b = this.bytes;
+    const n = MILLI_LENGTH[f];
+    const from = 4 * f;
     let at = this.length;
-    b[at++] = 0x2e;
-    const d1 = (f / 100) | 0;
-    const d2 = ((f / 10) | 0) % 10;
-    const d3 = f % 10;
-    b[at++] = 0x30 + d1;
-    if (d2 !== 0 || d3 !== 0) b[at++] = 0x30 + d2;
-    if (d3 !== 0) b[at++] = 0x30 + d3;
+    for (let k = 0; k < n; k++) b[at++] = MILLI_TEXT[from + k];
     this.length = at;
   }
 
