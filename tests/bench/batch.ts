@@ -19,7 +19,7 @@ import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { freePort } from '../helpers/free-port.js';
+import { startBuiltServer, waitReady } from '../helpers/built-server.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const COUNT = Number(process.env.BENCH_COUNT ?? 1000);
@@ -71,13 +71,7 @@ async function cli(dir: string, workers: number, count: number, name: string): P
 
 // the streamed batch over loopback, full lines and summary lines
 async function http(): Promise<Figure[]> {
-  const port = await freePort();
-  const server = spawn(process.execPath, ['dist/src/server/main.js'], {
-    cwd: ROOT,
-    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', LOG_LEVEL: 'warn', LAPWRIGHT_WORKERS: String(SERVER_WORKERS) },
-    stdio: ['ignore', 'inherit', 'inherit'],
-  });
-  const base = `http://127.0.0.1:${port}`;
+  const { base, child: server } = await startBuiltServer({ ...process.env, LAPWRIGHT_WORKERS: String(SERVER_WORKERS) });
   try {
     await waitReady(base);
     await stream(base, 5, 'full');
@@ -131,18 +125,6 @@ function runProcess(args: string[]): Promise<{ code: number; stderr: string }> {
     child.on('error', reject);
     child.on('close', (code) => resolve({ code: code ?? 1, stderr }));
   });
-}
-
-async function waitReady(base: string): Promise<void> {
-  for (let i = 0; i < 300; i++) {
-    try {
-      if ((await fetch(`${base}/readyz`)).status === 200) return;
-    } catch {
-      // not listening yet
-    }
-    await new Promise((r) => setTimeout(r, 100));
-  }
-  throw new Error(`${base} did not become ready`);
 }
 
 await main();

@@ -8,10 +8,10 @@
  * share of the health check's. Run by hand; never part of npm test. Figures depend on the
  * machine and on whatever else runs on it: compare runs made on the same machine.
  */
-import { spawn, spawnSync } from 'node:child_process';
+import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import autocannon from 'autocannon';
-import { freePort } from '../helpers/free-port.js';
+import { startBuiltServer, waitReady } from '../helpers/built-server.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const WORKERS = Number(process.env.BENCH_WORKERS ?? 2);
@@ -34,14 +34,7 @@ interface Figure {
 async function main(): Promise<void> {
   const build = spawnSync('npm', ['run', 'build'], { cwd: ROOT, stdio: 'inherit' });
   if (build.status !== 0) throw new Error('build failed');
-  const port = await freePort();
-  // warn: per-request log lines would be part of what is measured
-  const server = spawn(process.execPath, ['dist/src/server/main.js'], {
-    cwd: ROOT,
-    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', LOG_LEVEL: 'warn', LAPWRIGHT_WORKERS: String(WORKERS) },
-    stdio: ['ignore', 'inherit', 'inherit'],
-  });
-  const base = `http://127.0.0.1:${port}`;
+  const { base, child: server } = await startBuiltServer({ ...process.env, LAPWRIGHT_WORKERS: String(WORKERS) });
   try {
     await waitReady(base);
     console.log(`lapwright ${base}: ${WORKERS} workers, Node ${process.versions.node}, ${SECONDS} s per run, autocannon in this process`);
@@ -68,18 +61,6 @@ async function run(name: string, options: autocannon.Options): Promise<Figure> {
     errors: result.errors,
     non2xx: result.non2xx,
   };
-}
-
-async function waitReady(base: string): Promise<void> {
-  for (let i = 0; i < 300; i++) {
-    try {
-      if ((await fetch(`${base}/readyz`)).status === 200) return;
-    } catch {
-      // not listening yet
-    }
-    await new Promise((r) => setTimeout(r, 100));
-  }
-  throw new Error('the server did not become ready');
 }
 
 function round(x: number): number {

@@ -23,7 +23,7 @@
  * run stops by itself after warm-up + duration, each connection sends at most a fixed number of
  * requests, and a watchdog kills the server and exits 2 if anything hangs. Never part of npm test.
  */
-import { type ChildProcess, spawn, spawnSync } from 'node:child_process';
+import { type ChildProcess, spawnSync } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import { dirname } from 'node:path';
@@ -33,7 +33,7 @@ import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
 import autocannon from 'autocannon';
 import { generateTrack, type Seed } from '../../src/core/index.js';
-import { freePort } from '../helpers/free-port.js';
+import { startBuiltServer, waitReady } from '../helpers/built-server.js';
 import { cpuSeconds, fixed, KindStats, mergeStats, mulberry32, quantile, residentMiB } from './stats.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
@@ -106,21 +106,18 @@ async function main(): Promise<void> {
     if (build.status !== 0) throw new Error('npm run build failed');
   }
   const loadBefore = os.loadavg()[0];
-  const port = await freePort();
-  const base = `http://127.0.0.1:${port}`;
   // the defaults are what is measured: no LAPWRIGHT_* from the caller's environment
   const env: Record<string, string> = {};
   for (const [k, v] of Object.entries(process.env)) if (v !== undefined && !k.startsWith('LAPWRIGHT_')) env[k] = v;
   if (options.workers !== undefined) env.LAPWRIGHT_WORKERS = options.workers;
   if (options.maxQueue !== undefined) env.LAPWRIGHT_MAX_QUEUE = options.maxQueue;
-  // warn: per-request log lines would be part of what is measured
-  const child = spawn(process.execPath, ['dist/src/server/main.js'], { cwd: ROOT, env: { ...env, PORT: String(port), HOST: '127.0.0.1', LOG_LEVEL: 'warn' }, stdio: ['ignore', 'pipe', 'pipe'] });
+  const { base, child } = await startBuiltServer(env, 'pipe');
   server = child;
   let serverLog = '';
   child.stdout!.on('data', (d: Buffer) => (serverLog += d.toString()));
   child.stderr!.on('data', (d: Buffer) => (serverLog += d.toString()));
   try {
-    const ready = await waitReady(base);
+    const ready = await waitReady(base, 60);
     const rssStart = residentMiB(child.pid!);
     const rng = mulberry32(options.seed);
     const fixtures = await prepare(base);
@@ -395,19 +392,6 @@ function startWatch(base: string, pid: number): { stop: () => Promise<Watched> }
       return watched;
     },
   };
-}
-
-async function waitReady(base: string): Promise<{ workers: number; maxQueue: number }> {
-  for (let i = 0; i < 600; i++) {
-    try {
-      const r = await fetch(`${base}/readyz`);
-      if (r.status === 200) return (await r.json()) as { workers: number; maxQueue: number };
-    } catch {
-      // not listening yet
-    }
-    await sleep(100);
-  }
-  throw new Error('the server did not become ready within 60 s');
 }
 
 interface ReportInput {
