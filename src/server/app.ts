@@ -65,6 +65,9 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   const app = Fastify({
     logger: resolved.logger,
     bodyLimit: resolved.bodyLimitBytes,
+    // request.ip (the rate limit's key, the logs): the socket's address, or with N trusted
+    // proxies in front, the address N hops back in X-Forwarded-For
+    trustProxy: resolved.trustProxyHops > 0 ? (_address: string, hop: number) => hop < resolved.trustProxyHops : false,
     // our own onRequest hook answers 503 with our body and Retry-After while closing
     return503OnClosing: false,
     // seeds are path segments of up to 64 characters, URL-encoded

@@ -38,6 +38,12 @@ export interface AppOptions {
   readonly rateLimitMax?: number;
   /** Length of the rate-limit window, ms. */
   readonly rateLimitWindowMs?: number;
+  /**
+   * Reverse proxies in front of the server whose X-Forwarded-For entries are believed: the
+   * client is the address that many hops back (for the rate limit and the logs); 0 (the
+   * default): the socket's remote address, whatever the headers say.
+   */
+  readonly trustProxyHops?: number;
 }
 
 /** AppOptions with every default filled in. */
@@ -60,6 +66,8 @@ export interface ResolvedAppOptions {
   /** 0: no rate limit. */
   readonly rateLimitMax: number;
   readonly rateLimitWindowMs: number;
+  /** 0: the socket's address is the client. */
+  readonly trustProxyHops: number;
 }
 
 /** The listening entry's configuration: where to listen, and the app's options. */
@@ -88,6 +96,8 @@ export const APP_DEFAULTS = {
   // off: a training farm behind one NAT address must not be throttled by surprise
   rateLimitMax: 0,
   rateLimitWindowMs: 60_000,
+  // off: a header anyone can send must not decide who a client is unless a proxy sets it
+  trustProxyHops: 0,
 } as const;
 
 /** The API token's length bounds, characters (16: common practice for a shared secret, no source). */
@@ -130,6 +140,7 @@ export const ENV_VARS = {
   corsOrigins: { name: 'LAPWRIGHT_CORS_ORIGINS', meaning: 'origins a browser page may call the API from, comma-separated (such as https://sim.example.org), or * for any', defaultText: 'none (CORS off)' },
   apiToken: { name: 'LAPWRIGHT_API_TOKEN', meaning: `when set, every /v1 request must send it as Authorization: Bearer ... (401 otherwise); ${API_TOKEN_CHARS.min} to ${API_TOKEN_CHARS.max} characters of A-Z a-z 0-9 - . _ ~ + /`, defaultText: 'none (no token needed)' },
   rateLimitMax: { name: 'LAPWRIGHT_RATE_LIMIT_MAX', meaning: 'requests per client IP per window before 429 + Retry-After (/healthz and /readyz exempt); 0 = no limit', defaultText: '0 (off)', min: 0, max: 1_000_000_000 },
+  trustProxyHops: { name: 'LAPWRIGHT_TRUST_PROXY_HOPS', meaning: 'reverse proxies in front of the server (an ingress, a load balancer) whose X-Forwarded-For entries name the client, for the rate limit and the logs; 0 = the socket address, headers ignored', defaultText: '0 (none)', min: 0, max: 16 },
   rateLimitWindowMs: { name: 'LAPWRIGHT_RATE_LIMIT_WINDOW_MS', meaning: 'length of the rate-limit window, ms', defaultText: String(APP_DEFAULTS.rateLimitWindowMs), min: 1000, max: 86_400_000 },
 } as const satisfies Record<string, EnvVar>;
 
@@ -166,8 +177,9 @@ export function resolveAppOptions(options: AppOptions = {}): ResolvedAppOptions 
     apiToken: options.apiToken,
     rateLimitMax: options.rateLimitMax ?? APP_DEFAULTS.rateLimitMax,
     rateLimitWindowMs: options.rateLimitWindowMs ?? APP_DEFAULTS.rateLimitWindowMs,
+    trustProxyHops: options.trustProxyHops ?? APP_DEFAULTS.trustProxyHops,
   };
-  for (const key of ['workers', 'maxQueue', 'deadlineMs', 'bodyLimitBytes', 'trackBodyLimitBytes', 'retryAfterS', 'rateLimitMax', 'rateLimitWindowMs'] as const) {
+  for (const key of ['workers', 'maxQueue', 'deadlineMs', 'bodyLimitBytes', 'trackBodyLimitBytes', 'retryAfterS', 'rateLimitMax', 'rateLimitWindowMs', 'trustProxyHops'] as const) {
     const spec: EnvVar = ENV_VARS[key];
     const value = resolved[key];
     if (!Number.isInteger(value) || value < (spec.min ?? 0) || value > (spec.max ?? Infinity)) {
@@ -275,6 +287,7 @@ export function readServerConfig(env: Readonly<Record<string, string | undefined
     apiToken: tokenProblem === undefined ? apiToken : undefined,
     rateLimitMax: int(ENV_VARS.rateLimitMax),
     rateLimitWindowMs: int(ENV_VARS.rateLimitWindowMs),
+    trustProxyHops: int(ENV_VARS.trustProxyHops),
   };
   if (problems.length > 0) throw new ConfigError(problems);
   return { port, host, logLevel, shutdownTimeoutMs, app: resolveAppOptions(options) };

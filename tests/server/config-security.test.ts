@@ -19,8 +19,8 @@ function problemsOf(env: Record<string, string>): readonly string[] {
 }
 
 describe('readServerConfig: security variables', () => {
-  it('defaults: CORS off, no token, no rate limit, a one-minute window', () => {
-    expect(readServerConfig({}).app).toMatchObject({ corsOrigins: [], apiToken: undefined, rateLimitMax: 0, rateLimitWindowMs: 60_000 });
+  it('defaults: CORS off, no token, no rate limit, a one-minute window, no proxy trusted', () => {
+    expect(readServerConfig({}).app).toMatchObject({ corsOrigins: [], apiToken: undefined, rateLimitMax: 0, rateLimitWindowMs: 60_000, trustProxyHops: 0 });
   });
 
   it('reads every variable; blanks around list entries and empty entries are dropped', () => {
@@ -29,8 +29,9 @@ describe('readServerConfig: security variables', () => {
       LAPWRIGHT_API_TOKEN: ` ${TOKEN} `,
       LAPWRIGHT_RATE_LIMIT_MAX: '600',
       LAPWRIGHT_RATE_LIMIT_WINDOW_MS: '1000',
+      LAPWRIGHT_TRUST_PROXY_HOPS: '1',
     });
-    expect(config.app).toMatchObject({ corsOrigins: ['https://sim.example.org', 'http://localhost:5173'], apiToken: TOKEN, rateLimitMax: 600, rateLimitWindowMs: 1000 });
+    expect(config.app).toMatchObject({ corsOrigins: ['https://sim.example.org', 'http://localhost:5173'], apiToken: TOKEN, rateLimitMax: 600, rateLimitWindowMs: 1000, trustProxyHops: 1 });
   });
 
   it('* allows any origin; empty variables take the defaults', () => {
@@ -46,6 +47,7 @@ describe('readServerConfig: security variables', () => {
         LAPWRIGHT_API_TOKEN: secret,
         LAPWRIGHT_RATE_LIMIT_MAX: '-1',
         LAPWRIGHT_RATE_LIMIT_WINDOW_MS: '10',
+        LAPWRIGHT_TRUST_PROXY_HOPS: 'yes',
         LAPWRIGHT_WORKERS: '0',
       }),
     ).toEqual([
@@ -54,6 +56,7 @@ describe('readServerConfig: security variables', () => {
       'LAPWRIGHT_WORKERS must be an integer from 1 to 256, got "0"',
       'LAPWRIGHT_RATE_LIMIT_MAX must be an integer from 0 to 1000000000, got "-1"',
       'LAPWRIGHT_RATE_LIMIT_WINDOW_MS must be an integer from 1000 to 86400000, got "10"',
+      'LAPWRIGHT_TRUST_PROXY_HOPS must be an integer from 0 to 16, got "yes"',
     ]);
     expect(problemsOf({ LAPWRIGHT_API_TOKEN: 'x'.repeat(16) + ' secret' }).join('\n')).not.toContain('secret');
   });

@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { ConfigError, readServerConfig, resolveAppOptions } from '../../src/server/config.js';
 
 describe('readServerConfig', () => {
-  it('defaults: 127.0.0.1:8080, a worker per core, 16 queue places per worker, 10 s deadline, 1 MiB bodies', () => {
+  it('defaults: 127.0.0.1:8080, a worker per core, 64 queue places per worker, 10 s deadline, 1 MiB bodies, no proxy trusted', () => {
     const workers = availableParallelism();
     expect(readServerConfig({})).toEqual({
       port: 8080,
@@ -25,6 +25,7 @@ describe('readServerConfig', () => {
         apiToken: undefined,
         rateLimitMax: 0,
         rateLimitWindowMs: 60_000,
+        trustProxyHops: 0,
       },
     });
   });

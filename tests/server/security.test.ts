@@ -296,6 +296,27 @@ describe('rate limit (@fastify/rate-limit)', () => {
     });
   });
 
+  it('behind trusted proxies the client is named by X-Forwarded-For; without them the header is ignored', async () => {
+    vi.useFakeTimers({ toFake: ['Date'] });
+    vi.setSystemTime(new Date('2026-01-01T00:00:00Z'));
+    // one ingress in front (10.0.0.5): the client is the last X-Forwarded-For entry, so two
+    // clients behind it have a count each (proxy-addr semantics: trust the first N hops)
+    await withApp({ rateLimitMax: 1, trustProxyHops: 1 }, async (app) => {
+      const viaIngress = (client: string) => app.inject({ method: 'GET', url: '/v1/presets', remoteAddress: '10.0.0.5', headers: { 'x-forwarded-for': client } });
+      expect((await viaIngress('203.0.113.7')).statusCode).toBe(200);
+      expect((await viaIngress('203.0.113.8')).statusCode).toBe(200);
+      expect((await viaIngress('203.0.113.7')).statusCode).toBe(429);
+      // a client that puts its own entry first cannot pose as another: only the last hop counts
+      expect((await viaIngress('198.51.100.1, 203.0.113.8')).statusCode).toBe(429);
+    });
+    // the default: the socket's address, whatever the header says
+    await withApp({ rateLimitMax: 1 }, async (app) => {
+      const forged = (client: string) => app.inject({ method: 'GET', url: '/v1/presets', remoteAddress: '10.0.0.5', headers: { 'x-forwarded-for': client } });
+      expect((await forged('203.0.113.7')).statusCode).toBe(200);
+      expect((await forged('203.0.113.8')).statusCode).toBe(429);
+    });
+  });
+
   it('with a token set, refused tokens count against the limit too (guessing is limited)', async () => {
     vi.useFakeTimers({ toFake: ['Date'] });
     vi.setSystemTime(new Date('2026-01-01T00:00:00Z'));
