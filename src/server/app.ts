@@ -15,6 +15,7 @@ import { handleError, handleNotFound } from './error-handler.js';
 import { HttpError, unavailable } from './errors.js';
 import { jsonDepthExceeds, MAX_JSON_DEPTH } from './json-depth.js';
 import { TrackPool } from './pool/track-pool.js';
+import { TrackCache } from './track-cache.js';
 import { batchRoutes, DATASETS_TAG } from './routes/batches.js';
 import { curriculumRoutes } from './routes/curricula.js';
 import { distanceRoutes } from './routes/distance.js';
@@ -42,6 +43,8 @@ export interface ServiceState {
   readonly pool: TrackPool | null;
   /** Set when close() begins: new requests get 503 ERR_SHUTTING_DOWN. */
   shuttingDown: boolean;
+  /** Answers of the track routes kept for repeats (LAPWRIGHT_CACHE_BYTES). */
+  readonly cache: TrackCache;
 }
 
 declare module 'fastify' {
@@ -87,7 +90,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
  */
 export const lapwrightService: FastifyPluginAsync<ResolvedAppOptions> = async (app, options) => {
   const pool = options.startPool ? new TrackPool({ workers: options.workers, maxQueue: options.maxQueue, workerUrl: options.workerUrl, workerData: options.workerData }) : null;
-  const state: ServiceState = { options, version: await readPackageVersion(), pool, shuttingDown: false };
+  const state: ServiceState = { options, version: await readPackageVersion(), pool, shuttingDown: false, cache: new TrackCache(options.cacheBytes) };
   app.decorate('lapwright', state);
   if (pool !== null) {
     pool.ready.then(

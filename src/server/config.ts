@@ -44,6 +44,8 @@ export interface AppOptions {
    * default): the socket's remote address, whatever the headers say.
    */
   readonly trustProxyHops?: number;
+  /** Memory for answers of the track routes kept for repeats, bytes; 0 keeps none. */
+  readonly cacheBytes?: number;
 }
 
 /** AppOptions with every default filled in. */
@@ -68,6 +70,8 @@ export interface ResolvedAppOptions {
   readonly rateLimitWindowMs: number;
   /** 0: the socket's address is the client. */
   readonly trustProxyHops: number;
+  /** 0: no answers kept. */
+  readonly cacheBytes: number;
 }
 
 /** The listening entry's configuration: where to listen, and the app's options. */
@@ -98,6 +102,8 @@ export const APP_DEFAULTS = {
   rateLimitWindowMs: 60_000,
   // off: a header anyone can send must not decide who a client is unless a proxy sets it
   trustProxyHops: 0,
+  // about 450 default tracks of JSON
+  cacheBytes: 64 * 1024 * 1024,
 } as const;
 
 /** The API token's length bounds, characters (16: common practice for a shared secret, no source). */
@@ -140,6 +146,7 @@ export const ENV_VARS = {
   corsOrigins: { name: 'LAPWRIGHT_CORS_ORIGINS', meaning: 'origins a browser page may call the API from, comma-separated (such as https://sim.example.org), or * for any', defaultText: 'none (CORS off)' },
   apiToken: { name: 'LAPWRIGHT_API_TOKEN', meaning: `when set, every /v1 request must send it as Authorization: Bearer ... (401 otherwise); ${API_TOKEN_CHARS.min} to ${API_TOKEN_CHARS.max} characters of A-Z a-z 0-9 - . _ ~ + /`, defaultText: 'none (no token needed)' },
   rateLimitMax: { name: 'LAPWRIGHT_RATE_LIMIT_MAX', meaning: 'requests per client IP per window before 429 + Retry-After (/healthz and /readyz exempt); 0 = no limit', defaultText: '0 (off)', min: 0, max: 1_000_000_000 },
+  cacheBytes: { name: 'LAPWRIGHT_CACHE_BYTES', meaning: 'memory for answers of the track routes kept for repeated requests with a seed (least recently used dropped first), bytes; 0 = keep none', defaultText: '67108864 (64 MiB)', min: 0, max: 64 * 1024 ** 3 },
   trustProxyHops: { name: 'LAPWRIGHT_TRUST_PROXY_HOPS', meaning: 'reverse proxies in front of the server (an ingress, a load balancer) whose X-Forwarded-For entries name the client, for the rate limit and the logs; 0 = the socket address, headers ignored', defaultText: '0 (none)', min: 0, max: 16 },
   rateLimitWindowMs: { name: 'LAPWRIGHT_RATE_LIMIT_WINDOW_MS', meaning: 'length of the rate-limit window, ms', defaultText: String(APP_DEFAULTS.rateLimitWindowMs), min: 1000, max: 86_400_000 },
 } as const satisfies Record<string, EnvVar>;
@@ -178,8 +185,9 @@ export function resolveAppOptions(options: AppOptions = {}): ResolvedAppOptions 
     rateLimitMax: options.rateLimitMax ?? APP_DEFAULTS.rateLimitMax,
     rateLimitWindowMs: options.rateLimitWindowMs ?? APP_DEFAULTS.rateLimitWindowMs,
     trustProxyHops: options.trustProxyHops ?? APP_DEFAULTS.trustProxyHops,
+    cacheBytes: options.cacheBytes ?? APP_DEFAULTS.cacheBytes,
   };
-  for (const key of ['workers', 'maxQueue', 'deadlineMs', 'bodyLimitBytes', 'trackBodyLimitBytes', 'retryAfterS', 'rateLimitMax', 'rateLimitWindowMs', 'trustProxyHops'] as const) {
+  for (const key of ['workers', 'maxQueue', 'deadlineMs', 'bodyLimitBytes', 'trackBodyLimitBytes', 'retryAfterS', 'rateLimitMax', 'rateLimitWindowMs', 'trustProxyHops', 'cacheBytes'] as const) {
     const spec: EnvVar = ENV_VARS[key];
     const value = resolved[key];
     if (!Number.isInteger(value) || value < (spec.min ?? 0) || value > (spec.max ?? Infinity)) {
@@ -288,6 +296,7 @@ export function readServerConfig(env: Readonly<Record<string, string | undefined
     rateLimitMax: int(ENV_VARS.rateLimitMax),
     rateLimitWindowMs: int(ENV_VARS.rateLimitWindowMs),
     trustProxyHops: int(ENV_VARS.trustProxyHops),
+    cacheBytes: int(ENV_VARS.cacheBytes),
   };
   if (problems.length > 0) throw new ConfigError(problems);
   return { port, host, logLevel, shutdownTimeoutMs, app: resolveAppOptions(options) };

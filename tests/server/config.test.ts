@@ -26,6 +26,7 @@ describe('readServerConfig', () => {
         rateLimitMax: 0,
         rateLimitWindowMs: 60_000,
         trustProxyHops: 0,
+        cacheBytes: 67_108_864,
       },
     });
   });

@@ -119,11 +119,16 @@ async function answerTrack(request: FastifyRequest, reply: FastifyReply, body: T
   if (misplaced.length > 0) throw invalidInput('ERR_INVALID_PARAMS', misplaced);
   // the core reads no randomness: a missing seed is drawn here and echoed in the track
   const seed = body.seed ?? randomInt(0, SEED_MAX + 1);
-  const out = await runTaskOnPool(
-    state.pool,
-    { kind: 'generate', request: { ...body, seed }, export: { format, options: asked.options } },
-    { deadlineMs: state.options.deadlineMs, retryAfterS: state.options.retryAfterS, log: request.log },
-  );
+  const input = { kind: 'generate', request: { ...body, seed }, export: { format, options: asked.options } } as const;
+  // a request with its seed is answered the same way every time: a repeat comes from the cache
+  // (the parsed body has its keys in the schema's order, so equal requests give equal keys)
+  const key = body.seed === undefined ? null : JSON.stringify([input.request, format, asked.options]);
+  let out = key === null ? undefined : state.cache.get(key);
+  if (out === undefined) {
+    const made = await runTaskOnPool(state.pool, input, { deadlineMs: state.options.deadlineMs, retryAfterS: state.options.retryAfterS, log: request.log });
+    out = { id: made.id, bytes: made.bytes, fileName: made.fileName };
+    if (key !== null) state.cache.set(key, out);
+  }
   const etag = entityTag(out.id, format, asked.options);
   reply.header('etag', etag);
   if (cacheable) reply.header('cache-control', CACHE_FOREVER);
