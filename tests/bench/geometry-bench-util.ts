@@ -1,15 +1,7 @@
 // Shared helpers for the geometry benches: a seeded generator, smooth seeded loops and timing stats.
+import { mulberry32 } from '../helpers/mulberry32.js';
 
-/** mulberry32: a small seeded 32-bit generator, so every run sees the same data. */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) | 0;
-    let t = Math.imul(a ^ (a >>> 15), 1 | a);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { mulberry32 };
 
 /** Closed loop r(θ) = R·(1 + Σ a_k cos(kθ + φ_k)), k = 2…harmonics+1, sampled at n points; R sets the size in m. */
 export function wobblyLoop(n: number, radiusM: number, harmonics: number, seed: number): Float64Array {

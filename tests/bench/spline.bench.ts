@@ -6,6 +6,7 @@
 
 import { catmullRomClosed } from '../../src/core/curve/catmull-rom-closed.js';
 import { resampleClosedSpline } from '../../src/core/curve/resample.js';
+import { mulberry32 } from '../helpers/mulberry32.js';
 
 const SPACINGS = [
   { name: 'sparse', stepDeg: 4, maxChordM: 15 },
@@ -116,14 +117,3 @@ function placeControl(dense: Float64Array, stepDeg: number, maxChordM: number): 
   return new Float64Array(out);
 }
 
-// seeded uniform [0, 1) (mulberry32), so every run times the same curves
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}

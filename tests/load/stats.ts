@@ -4,6 +4,7 @@
  * read from /proc. Used by tests/load/run.ts.
  */
 import { readFileSync } from 'node:fs';
+export { mulberry32 } from '../helpers/mulberry32.js';
 
 /** Every response of one kind of request. */
 export class KindStats {
@@ -90,14 +91,3 @@ export function fixed(x: number, decimals = 1): string {
   return Number.isFinite(x) ? x.toFixed(decimals) : '-';
 }
 
-/** A seeded pseudo-random generator (mulberry32, public domain): uniform in [0, 1). */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
