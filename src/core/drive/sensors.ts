@@ -59,15 +59,14 @@ export function sensorCoverage(
   for (let r = 0; r < fan.count; r++) offsets[r] = fan.count === 1 ? 0 : -spread / 2 + (r * spread) / (fan.count - 1);
   // rays in the order most likely to settle a pose soonest: the outermost first (the shortest
   // way to a wall on either side), then from the middle outwards (the longest view along the
-  // road, where gates are); a pose is settled once it has seen both walls and a gate, and the
-  // rays left would not change its answer
+  // road, where gates are; spiralling out from the middle reaches every ray); a pose is settled
+  // once it has seen both walls and a gate, and the rays left would not change its answer
   const order: number[] = [];
   if (fan.count > 1) order.push(0, fan.count - 1);
   for (let k = 0; k < fan.count; k++) {
     const r = Math.floor((fan.count - 1) / 2) + (k % 2 === 0 ? k / 2 : -(k + 1) / 2);
     if (r >= 0 && r < fan.count && !order.includes(r)) order.push(r);
   }
-  for (let r = 0; r < fan.count; r++) if (!order.includes(r)) order.push(r);
   const hit: RayHit = { wallM: Infinity, wallSide: 0, gateM: Infinity };
   let poses = 0, covered = 0, seeGate = 0;
   for (let i = 0; i < n; i += stride) {

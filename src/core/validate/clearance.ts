@@ -95,22 +95,10 @@ export function checkClearance(input: ClearanceInput): ClearanceResult {
   // (also for the measured gap: the closest approach of the lap to itself, not of a bend to itself)
   const exemptM = Math.PI * minRadiusM;
   const scan: PairScan = { points, s, lapLengthM, reach, marginM, exemptM, n, maxViolations, minGap: beyond, violations: [] };
-  if (beyond <= 0) {
-    // violations only: every chunk pair whose boxes come within the required distance
-    for (let a = 0; a < chunks; a++) {
-      const aFrom = a * CHUNK, aTo = Math.min(n, aFrom + CHUNK);
-      const q = chunkReach[a] + reachMax + marginM;
-      for (const b of index.search(box[4 * a] - q, box[4 * a + 1] - q, box[4 * a + 2] + q, box[4 * a + 3] + q)) {
-        // a whole chunk pair within πR along the lap is the same part of it
-        if (farthestAlongLap(s, aFrom, aTo - 1, b * CHUNK, Math.min(n, (b + 1) * CHUNK), n, lapLengthM) <= exemptM) continue;
-        scanChunkPair(scan, a, b, box, reachMax);
-      }
-    }
-    return { minGapM: scan.minGap, violations: scan.violations };
-  }
-  // measuring: chunk pairs by a lower bound of their gap (box distance less both reaches), in
-  // order of that bound (a counting sort into BOUND_STEP_M buckets), stopping once the bound
-  // reaches the smallest gap found: no pair left can hold a smaller one (branch and bound)
+  // chunk pairs by a lower bound of their gap (box distance less both reaches), in order of that
+  // bound (a counting sort into BOUND_STEP_M buckets), stopping once the bound reaches both the
+  // margin (no violation left) and the smallest gap found (no smaller gap left: branch and bound);
+  // a whole chunk pair within πR along the lap is the same part of it
   const limit = marginM + beyond;
   const pairA: number[] = [];
   const pairB: number[] = [];
