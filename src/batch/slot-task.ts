@@ -105,7 +105,7 @@ export async function runSlotTask(input: SlotTaskInput): Promise<{ output: SlotT
  * @throws InfeasibleError when the parameters no longer make a track (the worker reports it)
  */
 export async function runRemakeTask(input: RemakeTaskInput): Promise<{ output: RemakeTaskOutput; transfer: ArrayBuffer[] }> {
-  const { track, json } = generateTrackJson(input.request);
+  const { track, bytes: json } = generateTrackJson(input.request);
   const bytes = await bytesOf(track, json, input.bytes);
   const output: RemakeTaskOutput = { ok: true, kind: 'remake', id: track.id, shape: encodeShape(track.centerline.points), bytes };
   return { output, transfer: bytes === null ? [] : [bytes.buffer as ArrayBuffer] };
@@ -120,12 +120,18 @@ export function runDistanceTask(input: DistanceTaskInput): { output: DistanceTas
   return { output: { ok: true, kind: 'distance', distance }, transfer: [] };
 }
 
-// the track in the format asked for; the default JSON is the text the core made for the id (no
+// the track in the format asked for; the default JSON is the bytes the core wrote for the id (no
 // second serialization) with the newline every JSON export ends in
-async function bytesOf(track: Track, json: string, asked: SlotBytes): Promise<Uint8Array | null> {
+async function bytesOf(track: Track, json: Uint8Array, asked: SlotBytes): Promise<Uint8Array | null> {
   if (asked.format === 'none') return null;
   const { format, options } = asked;
-  const data = format === 'json' && options.pretty !== true ? json + '\n' : await exportTrack(track, format, options);
+  if (format === 'json' && options.pretty !== true) {
+    const line = new Uint8Array(json.length + 1);
+    line.set(json);
+    line[json.length] = 0x0a;
+    return line;
+  }
+  const data = await exportTrack(track, format, options);
   return typeof data === 'string' ? ENCODER.encode(data) : ownBuffer(data);
 }
 

@@ -10,7 +10,7 @@ import { createHash } from 'node:crypto';
 import { buildCandidate } from './candidate.js';
 import type { DriveResult } from './drive/reference-drive.js';
 import { InfeasibleError, type Issue } from './errors.js';
-import { jsonWithSha256 } from './json-bytes.js';
+import { jsonBytesWithSha256 } from './json-bytes.js';
 import { gridLayout } from './layout/spawn.js';
 import { cornerRadiusFloorM } from './params/drivability.js';
 import { checkFeasibility, splitTurning } from './params/feasibility.js';
@@ -34,16 +34,24 @@ export const MAX_ATTEMPTS = 64;
  * @example generateTrack({ seed: 7 }).metrics.cornerCount // 9
  */
 export function generateTrack(request: TrackRequest): Track {
-  return generateTrackJson(request).track;
+  return withId(generateUnsigned(request), false).track;
 }
 
 /**
- * `generateTrack`, also returning the track's JSON text — exactly `JSON.stringify(track)` — made
- * while computing the id, so a shell that ships the bytes need not serialize the track again.
+ * `generateTrack`, also returning the track's JSON — exactly `JSON.stringify(track)` — as UTF-8
+ * bytes, written while computing the id, so a shell that ships the bytes neither serializes the
+ * track again nor makes a string of it. The bytes own their whole ArrayBuffer (transferable).
  *
  * @throws InfeasibleError as generateTrack
+ * @example new TextDecoder().decode(generateTrackJson({ seed: 7 }).bytes).startsWith('{"format":') // true
  */
-export function generateTrackJson(request: TrackRequest): { readonly track: Track; readonly json: string } {
+export function generateTrackJson(request: TrackRequest): { readonly track: Track; readonly bytes: Uint8Array } {
+  const { track, bytes } = withId(generateUnsigned(request), true);
+  return { track, bytes };
+}
+
+// the first track the checker accepts and the reference drive laps, with its id still empty
+function generateUnsigned(request: TrackRequest): Track {
   const echo = resolveParams(request);
   const grid = gridLayout(echo);
   checkFeasibility(echo, grid.lengthM);
@@ -56,7 +64,7 @@ export function generateTrackJson(request: TrackRequest): { readonly track: Trac
     let stage: string = candidate.stage;
     if (candidate.track !== null) {
       const result = validateTrack(candidate.track);
-      if (result.valid && candidate.drive.completed) return withId(candidate.track);
+      if (result.valid && candidate.drive.completed) return candidate.track;
       if (result.valid) {
         if (p.drivability === 'refuse') throw driveRefusal(candidate.drive, attempt + 1);
         stage = 'reference_drive';
@@ -77,19 +85,32 @@ export function generateTrackJson(request: TrackRequest): { readonly track: Trac
 }
 
 /**
- * The track with its id — hex sha256 of the canonical JSON of every other field — and the JSON
- * of the whole track, made by inserting the id after the leading format field of that text.
+ * The track with its id — hex sha256 of the canonical JSON of every other field — and, when
+ * `keepBytes`, the JSON bytes of the whole track, made by inserting the id after the leading
+ * format field of that text.
  */
-export function withId(track: Track): { readonly track: Track; readonly json: string } {
+function withId(track: Track, keepBytes: true): { readonly track: Track; readonly bytes: Uint8Array };
+function withId(track: Track, keepBytes: boolean): { readonly track: Track; readonly bytes: Uint8Array | null };
+function withId(track: Track, keepBytes: boolean): { readonly track: Track; readonly bytes: Uint8Array | null } {
   const { format, id: _unused, ...rest } = track;
   const whole = { format, ...rest };
-  const head = `{"format":${JSON.stringify(format)},`;
-  // jsonWithSha256 writes the same text as JSON.stringify, as bytes (faster on numbers)
-  const made = jsonWithSha256(whole);
-  const body = made === null ? JSON.stringify(whole) : made.json;
+  // jsonBytesWithSha256 writes the same text as JSON.stringify, as bytes (faster on numbers);
+  // text beyond ASCII (a string seed) goes through JSON.stringify
+  const made = jsonBytesWithSha256(whole);
+  const body = made === null ? UTF8.encode(JSON.stringify(whole)) : made.bytes;
   const id = made === null ? createHash('sha256').update(body).digest('hex') : made.sha256;
-  return { track: { format, id, ...rest }, json: `${head}"id":"${id}",${body.slice(head.length)}` };
+  const signed: Track = { format, id, ...rest };
+  if (!keepBytes) return { track: signed, bytes: null };
+  const head = UTF8.encode(`{"format":${JSON.stringify(format)},`).length;
+  const idField = UTF8.encode(`"id":"${id}",`);
+  const bytes = new Uint8Array(body.length + idField.length);
+  bytes.set(body.subarray(0, head));
+  bytes.set(idField, head);
+  bytes.set(body.subarray(head), head + idField.length);
+  return { track: signed, bytes };
 }
+
+const UTF8 = new TextEncoder();
 
 // the parameters the geometry follows: minCornerRadiusM raised to the floor, whose feasibility
 // is checked again with the raise named in the message

@@ -251,20 +251,21 @@ class JsonWriter {
 let scratch: Uint8Array = new Uint8Array(1 << 16);
 
 /**
- * `JSON.stringify(value)` and the hex sha256 of its UTF-8 bytes, or null when the text would hold
- * a character beyond ASCII (then use JSON.stringify and hash the text).
+ * The UTF-8 bytes of `JSON.stringify(value)` and their hex sha256, or null when the text would
+ * hold a character beyond ASCII (then use JSON.stringify and hash the text). The bytes are a
+ * view of a buffer the next call overwrites: copy what must outlive it. No string is made: a
+ * track's text (140 kB for the default request) would be a string in V8's large-object space,
+ * and making one there costs about as much as writing the text.
  *
  * @param value plain data: objects, arrays, strings, numbers, booleans, null (typed arrays,
  *   Maps, bigint and objects with toJSON are not supported)
- * @example jsonWithSha256({ a: [1.5, 2] })?.json // '{"a":[1.5,2]}'
+ * @example new TextDecoder().decode(jsonBytesWithSha256({ a: [1.5, 2] })?.bytes) // '{"a":[1.5,2]}'
  */
-export function jsonWithSha256(value: unknown): { readonly json: string; readonly sha256: string } | null {
+export function jsonBytesWithSha256(value: unknown): { readonly bytes: Uint8Array; readonly sha256: string } | null {
   const w = new JsonWriter(scratch);
   w.value(value);
   scratch = w.bytes;
   if (w.nonAscii) return null;
   const bytes = w.bytes.subarray(0, w.length);
-  const sha256 = createHash('sha256').update(bytes).digest('hex');
-  const json = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.length).toString('latin1');
-  return { json, sha256 };
+  return { bytes, sha256: createHash('sha256').update(bytes).digest('hex') };
 }

@@ -63,10 +63,11 @@ describe('generateTrack', () => {
     expect(Object.keys(a)).toEqual(['format', 'id', 'seed', 'generatorVersion', 'params', 'attempts', 'centerline', 'walls', 'gates', 'spawns', 'corners', 'metrics']);
   });
 
-  it('generateTrackJson gives exactly the bytes of JSON.stringify(track)', () => {
+  it('generateTrackJson gives exactly the UTF-8 bytes of JSON.stringify(track), owning their buffer', () => {
     for (const request of [{ seed: 11 }, { seed: 'ünïcode seed ⛳', lengthM: 800, cornerCount: 6 }]) {
-      const { track, json } = generateTrackJson(request);
-      expect(json).toBe(JSON.stringify(track));
+      const { track, bytes } = generateTrackJson(request);
+      expect(new TextDecoder().decode(bytes)).toBe(JSON.stringify(track));
+      expect(bytes.byteLength).toBe(bytes.buffer.byteLength);
       expect(track).toEqual(generateTrack(request));
     }
   });

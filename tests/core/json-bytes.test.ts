@@ -2,7 +2,13 @@ import { createHash } from 'node:crypto';
 import { fc, test } from '@fast-check/vitest';
 import { describe, expect } from 'vitest';
 import { generateTrack, generateTrackJson } from '../../src/core/generate.js';
-import { jsonWithSha256 } from '../../src/core/json-bytes.js';
+import { jsonBytesWithSha256 } from '../../src/core/json-bytes.js';
+
+// the writer's bytes read back as text (a copy: the next call reuses the buffer)
+function jsonWithSha256(value: unknown): { json: string; sha256: string } | null {
+  const made = jsonBytesWithSha256(value);
+  return made === null ? null : { json: new TextDecoder().decode(made.bytes), sha256: made.sha256 };
+}
 
 // The reference is the JavaScript engine's own JSON.stringify (ECMA-262, JSON.stringify and
 // Number::toString: the shortest decimal that reads back as the same double) and node:crypto's
@@ -12,7 +18,7 @@ function reference(value: unknown): { json: string; sha256: string } {
   return { json, sha256: createHash('sha256').update(json).digest('hex') };
 }
 
-describe('jsonWithSha256 writes the same text as JSON.stringify', () => {
+describe('jsonBytesWithSha256 writes the same text as JSON.stringify', () => {
   test('numbers at the edges of the integer-written range and outside it', () => {
     const edge = [
       0, -0, 1, -1, 0.5, 1e-6, -1e-6, 9.99e-7, 1e-7, 5e-324, 123456.789, 999999.999999999, 1e6, 1e6 + 0.5, 1e15, 1e21, 1.5e21,
@@ -47,10 +53,11 @@ describe('jsonWithSha256 writes the same text as JSON.stringify', () => {
     expect(jsonWithSha256(v)).toEqual(reference(v));
   });
 
-  test('generated tracks: the shipped text is JSON.stringify of the track and the id its hash', () => {
+  test('generated tracks: the shipped bytes are the UTF-8 of JSON.stringify of the track and the id their hash', () => {
     for (const request of [{ seed: 1 }, { seed: 2, lengthM: 8000, cornerCount: 30, curvatureBudgetDeg: 3000 }, { seed: 3, lengthM: 600, widthM: { min: 6, max: 8 }, cornerCount: 12, minCornerRadiusM: 8 }]) {
-      const { track, json } = generateTrackJson(request);
-      expect(json).toBe(JSON.stringify(track));
+      const { track, bytes } = generateTrackJson(request);
+      expect(Buffer.from(bytes).equals(Buffer.from(JSON.stringify(track), 'utf8'))).toBe(true);
+      expect(bytes.byteLength).toBe(bytes.buffer.byteLength);
       const { format, id, ...rest } = track;
       expect(id).toBe(createHash('sha256').update(JSON.stringify({ format, ...rest })).digest('hex'));
       expect(generateTrack(request).id).toBe(id);

@@ -36,13 +36,13 @@ export interface BatchPlan {
   readonly difficulty: ValueRange | null;
 }
 
-/** A feasible draw of a slot: the track, its JSON text (JSON.stringify of it), its stored shape. */
+/** A feasible draw of a slot: the track, its JSON (JSON.stringify of it) as UTF-8 bytes, its stored shape. */
 export interface SlotCandidate {
   readonly index: number;
   readonly draw: number;
   readonly split: Split;
   readonly track: Track;
-  readonly json: string;
+  readonly json: Uint8Array;
   readonly shape: string;
 }
 
@@ -88,7 +88,7 @@ export function makeSlotCandidate(plan: BatchPlan, index: number, from: number):
       skippedSplit++;
       continue;
     }
-    let made: { track: Track; json: string };
+    let made: { track: Track; bytes: Uint8Array };
     try {
       made = generateTrackJson(sampleParams(plan.params, seed));
     } catch (err) {
@@ -98,7 +98,7 @@ export function makeSlotCandidate(plan: BatchPlan, index: number, from: number):
       if (redrawn >= MAX_SLOT_REDRAWS) return { ok: false, index, reason: 'infeasible', last, skippedSplit, redrawn, skippedDifficulty };
       continue;
     }
-    const { track, json } = made;
+    const { track, bytes: json } = made;
     if (band !== null && !(track.metrics.difficulty >= band.min && track.metrics.difficulty <= band.max)) {
       skippedDifficulty++;
       if (skippedDifficulty >= MAX_SLOT_DIFFICULTY_MISSES) return { ok: false, index, reason: 'difficulty', last, skippedSplit, redrawn, skippedDifficulty };

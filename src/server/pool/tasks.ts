@@ -24,8 +24,8 @@ export async function runTask(input: TaskInput): Promise<{ output: TaskOutput; t
       const made = generateTrackJson(input.request);
       const track = made.track;
       const { format, options } = input.export ?? PLAIN_JSON;
-      // the default JSON is the text the core made for the id: no second serialization
-      const data = format === 'json' && options.pretty !== true ? made.json : await exportTrack(track, format, options);
+      // the default JSON is the bytes the core wrote for the id: no second serialization
+      const data = format === 'json' && options.pretty !== true ? made.bytes : await exportTrack(track, format, options);
       const bytes = ownBuffer(typeof data === 'string' ? ENCODER.encode(data) : data);
       const output: TaskOutput = { ok: true, kind: 'generate', id: track.id, seed: track.seed, format, mediaType: EXPORT_FORMATS[format].mediaType, fileName: exportFileName(track, format, options), bytes };
       return { output, transfer: [bytes.buffer as ArrayBuffer] };
