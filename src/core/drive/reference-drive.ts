@@ -70,10 +70,12 @@ export interface DriveResult {
  * @param headingRad track heading at the start line, radians
  * @param vehicle size, wheelbase, steering lock and longitudinal limits
  * @param referenceLapS the profile's lap time, seconds (sets the time limit)
+ * @param exhaustive measure the footprint exactly at every step instead of skipping steps the
+ *   bound rules out (for tests and audits: the answer is the same, slower)
  * @returns whether the lap was completed, its time, deviation and closest approach to a wall
  * @throws RangeError when the speed profile and the strip have different lengths
  */
-export function referenceDrive(strip: RoadStrip, speedMps: Float64Array, headingRad: number, vehicle: DriveVehicle, referenceLapS: number): DriveResult {
+export function referenceDrive(strip: RoadStrip, speedMps: Float64Array, headingRad: number, vehicle: DriveVehicle, referenceLapS: number, exhaustive = false): DriveResult {
   const { n, center: C, spacingM } = strip;
   if (speedMps.length !== n) throw new RangeError(`speed profile has ${speedMps.length} points, the road ${n}`);
   const lapM = n * spacingM;
@@ -117,8 +119,8 @@ export function referenceDrive(strip: RoadStrip, speedMps: Float64Array, heading
     // how close the footprint is to a wall: measured unless the motion since the last
     // measurement cannot have brought it below the smallest margin so far (the margin is
     // 1-Lipschitz in the footprint's displacement), so the smallest margin stays exact
-    if (lastMargin - moved <= minMargin) {
-      vertices.floorM = minMargin;
+    if (exhaustive || lastMargin - moved <= minMargin) {
+      vertices.floorM = exhaustive ? Infinity : minMargin;
       footprintClearance(strip, vehicle, state.x, state.y, state.hx, state.hy, quad, vertices, clearance);
       lastMargin = clearance.exact ? clearance.marginM : clearance.marginM - vertices.bulgeM;
       moved = 0;

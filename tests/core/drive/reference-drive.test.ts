@@ -4,6 +4,8 @@ import { describe, expect, it } from 'vitest';
 import { referenceDrive, type DriveVehicle } from '../../../src/core/drive/reference-drive.js';
 import { buildRoadStrip } from '../../../src/core/drive/road-strip.js';
 import { speedProfile } from '../../../src/core/drive/speed-profile.js';
+import { generateTrack } from '../../../src/core/generate.js';
+import { STANDARD_GRAVITY_MPS2 } from '../../../src/core/drive/speed-profile.js';
 import { stadiumTrack } from '../../helpers/synthetic-track.js';
 
 const car: DriveVehicle = { wheelbaseM: 2.5, widthM: 2, lengthM: 4.5, maxSteerRad: Math.PI / 6, accelMps2: 6, brakeMps2: 8 };
@@ -60,6 +62,42 @@ describe('referenceDrive', () => {
     expect(result.side).toBe('right');
     expect(result.atS).toBeGreaterThan(60);
     expect(result.atS).toBeLessThan(60 + 25 * Math.PI);
+  });
+
+  // the drive measures the footprint at few poses (bounds from measured neighbours skip the
+  // rest); measuring every pose exactly must give the same answer, failures included
+  it('skipping poses changes nothing: the same result as measuring every pose exactly', () => {
+    const cases: { track: ReturnType<typeof stadiumTrack>; vehicle: DriveVehicle }[] = [
+      { track: stadiumTrack(), vehicle: car },
+      { track: stadiumTrack(), vehicle: { ...car, widthM: 11 } },
+      { track: stadiumTrack({ radiusM: 25, straightM: 120 }), vehicle: { ...car, maxSteerRad: (2 * Math.PI) / 180 } },
+      { track: stadiumTrack({ radiusM: 25, straightM: 120 }), vehicle: { ...car, maxSteerRad: (9 * Math.PI) / 180 } },
+    ];
+    for (const { track, vehicle } of cases) {
+      const strip = buildRoadStrip(track);
+      const p = speedProfile(track.centerline.curvature, track.centerline.spacingM, limits);
+      const args = [strip, p.speedMps, (track.centerline.headingDeg[0] * Math.PI) / 180, vehicle, p.lapTimeS] as const;
+      expect(referenceDrive(...args)).toEqual(referenceDrive(...args, true));
+    }
+    // generated tracks, with the car they were made for and with wider and less agile ones
+    let failures = 0;
+    for (let seed = 0; seed < 12; seed++) {
+      const t = generateTrack(seed % 3 === 0 ? { seed, lengthM: 700, cornerCount: 10, curvatureBudgetDeg: 1000, minCornerRadiusM: 9, widthM: { min: 6, max: 8 } } : { seed });
+      const v = t.params.vehicle;
+      const grip = v.mu * STANDARD_GRAVITY_MPS2;
+      const strip = buildRoadStrip(t);
+      const p = speedProfile(t.centerline.curvature, t.centerline.spacingM, v);
+      for (const [widthM, steerDeg] of [[v.widthM, v.maxSteerDeg], [v.widthM + 3, v.maxSteerDeg], [v.widthM, 12]]) {
+        const vehicle: DriveVehicle = { wheelbaseM: v.wheelbaseM, widthM, lengthM: v.lengthM, maxSteerRad: (steerDeg * Math.PI) / 180, accelMps2: Math.min(v.maxAccelMps2, grip), brakeMps2: Math.min(v.maxBrakeMps2, grip) };
+        const args = [strip, p.speedMps, (t.centerline.headingDeg[0] * Math.PI) / 180, vehicle, p.lapTimeS] as const;
+        const fast = referenceDrive(...args);
+        expect(fast, `seed ${seed}, width ${widthM}, lock ${steerDeg}`).toEqual(referenceDrive(...args, true));
+        if (!fast.completed) failures++;
+      }
+    }
+    // both branches were exercised: laps that fail and laps that finish
+    expect(failures).toBeGreaterThan(3);
+    expect(failures).toBeLessThan(30);
   });
 
   it('a speed profile of another length is a programmer error', () => {
