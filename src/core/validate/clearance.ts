@@ -98,20 +98,53 @@ export function checkClearance(input: ClearanceInput): ClearanceResult {
   // chunk pairs by a lower bound of their gap (box distance less both reaches), in order of that
   // bound (a counting sort into BOUND_STEP_M buckets), stopping once the bound reaches both the
   // margin (no violation left) and the smallest gap found (no smaller gap left: branch and bound);
-  // a whole chunk pair within πR along the lap is the same part of it
-  const limit = marginM + beyond;
+  // a whole chunk pair within πR along the lap is the same part of it. Pairs are listed in rounds
+  // of growing bound (most laps' closest approach is found within the first), so distant pairs
+  // are not listed when a smaller gap is already known; the pairs are scanned in the same order
+  // as in one round (the first round takes every bucket that may hold a violation).
+  const limit = Math.max(marginM, beyond);
+  const cells: ChunkCells = { index, box, chunkReach, segmentReach, reachMax, s, n, chunks, lapLengthM, exemptM };
+  let from = -Infinity;
+  let to = Math.min(limit, (Math.ceil(Math.max(marginM, FIRST_ROUND_SHARE * beyond) / BOUND_STEP_M) + 1) * BOUND_STEP_M);
+  for (;;) {
+    const done = scanRound(scan, cells, from, to, to >= limit);
+    if (done || to >= limit || Math.max(marginM, scan.minGap) <= to) break;
+    from = to;
+    to = Math.min(limit, 2 * to);
+  }
+  return { minGapM: scan.minGap, violations: scan.violations };
+}
+
+// the chunk boxes and what the pair listing needs of them
+interface ChunkCells {
+  readonly index: BoxIndex;
+  readonly box: Float64Array;
+  readonly chunkReach: Float64Array;
+  readonly segmentReach: Float64Array;
+  readonly reachMax: number;
+  readonly s: Float64Array;
+  readonly n: number;
+  readonly chunks: number;
+  readonly lapLengthM: number;
+  readonly exemptM: number;
+}
+
+// lists the chunk pairs whose bound lies in [from, to) and scans them in order of bound; returns
+// true when no later pair can matter (the branch and bound stopped, or this was the last round)
+function scanRound(scan: PairScan, cells: ChunkCells, from: number, to: number, last: boolean): boolean {
+  const { index, box, chunkReach, segmentReach, reachMax, s, n, chunks, lapLengthM, exemptM } = cells;
   const pairA: number[] = [];
   const pairB: number[] = [];
   const bucketOf: number[] = [];
-  const buckets = Math.ceil(limit / BOUND_STEP_M) + 2;
+  const buckets = Math.ceil(to / BOUND_STEP_M) + 2;
   const bucketSize = new Int32Array(buckets + 1);
   for (let a = 0; a < chunks; a++) {
     const aFrom = a * CHUNK, aTo = Math.min(n, aFrom + CHUNK);
-    const q = chunkReach[a] + reachMax + limit;
+    const q = chunkReach[a] + reachMax + to;
     for (const b of index.search(box[4 * a] - q, box[4 * a + 1] - q, box[4 * a + 2] + q, box[4 * a + 3] + q)) {
       if (farthestAlongLap(s, aFrom, aTo - 1, b * CHUNK, Math.min(n, (b + 1) * CHUNK), n, lapLengthM) <= exemptM) continue;
       const lower = boxDistance(box, a, b) - chunkReach[a] - segmentReach[b];
-      if (lower >= limit) continue;
+      if (lower >= to || lower < from) continue;
       // bucket 0 holds bounds <= 0, bucket k >= 1 bounds in ((k - 1)·step, k·step]
       const k = lower <= 0 ? 0 : Math.min(buckets - 1, Math.ceil(lower / BOUND_STEP_M));
       pairA.push(a);
@@ -126,11 +159,18 @@ export function checkClearance(input: ClearanceInput): ClearanceResult {
   for (let p = 0; p < pairA.length; p++) order[fill[bucketOf[p]]++] = p;
   for (let k = 0; k < buckets; k++) {
     // every bound in bucket k exceeds (k - 1)·step
-    if (k >= 1 && (k - 1) * BOUND_STEP_M >= marginM + Math.max(0, scan.minGap)) break;
-    for (let o = bucketSize[k]; o < bucketSize[k + 1]; o++) scanChunkPair(scan, pairA[order[o]], pairB[order[o]], box, reachMax);
+    if (k >= 1 && (k - 1) * BOUND_STEP_M >= Math.max(scan.marginM, scan.minGap)) return true;
+    for (let o = bucketSize[k]; o < bucketSize[k + 1]; o++) scanChunkPair(scan, pairA[order[o]], pairB[order[o]], box, segmentReach);
   }
-  return { minGapM: scan.minGap, violations: scan.violations };
+  return last;
 }
+
+/**
+ * Share of the measured range whose pairs the first round lists (the rest come in rounds that
+ * double the bound): on default and 8 km laps, 0.625 of 50 m left the fewest pairs listed and
+ * took 0.70 of the time of one round over the whole range (0.5: 0.74, 0.8: 0.80).
+ */
+const FIRST_ROUND_SHARE = 0.625;
 
 /** Width of the buckets chunk pairs are ordered in by their lower bound, metres. */
 const BOUND_STEP_M = 0.5;
@@ -150,14 +190,15 @@ interface PairScan {
 }
 
 // every vertex of chunk a against every segment of chunk b more than πR away along the lap
-function scanChunkPair(scan: PairScan, a: number, b: number, box: Float64Array, reachMax: number): void {
+function scanChunkPair(scan: PairScan, a: number, b: number, box: Float64Array, segmentReach: Float64Array): void {
   const { points, s, lapLengthM, reach, marginM, exemptM, n, maxViolations, violations } = scan;
   const aFrom = a * CHUNK, aTo = Math.min(n, aFrom + CHUNK);
   const bFrom = b * CHUNK, bTo = Math.min(n, bFrom + CHUNK);
   let minGap = scan.minGap;
   for (let i = aFrom; i < aTo; i++) {
     const px = points[2 * i], py = points[2 * i + 1];
-    const qi = reach[i] + reachMax + marginM + Math.max(0, minGap);
+    // a vertex farther than this from chunk b's box can neither break the margin nor beat the gap
+    const qi = reach[i] + segmentReach[b] + Math.max(marginM, minGap);
     if (px < box[4 * b] - qi || px > box[4 * b + 2] + qi || py < box[4 * b + 1] - qi || py > box[4 * b + 3] + qi) continue;
     for (let j = bFrom; j < bTo; j++) {
       const j1 = j + 1 === n ? 0 : j + 1;
