@@ -189,6 +189,10 @@ class JsonWriter {
       this.numbers(items);
       return;
     }
+    if (n > 0 && isPoint(items[0])) {
+      this.points(items);
+      return;
+    }
     this.byte(0x5b);
     for (let i = 0; i < n; i++) {
       if (i > 0) this.byte(0x2c);
@@ -228,6 +232,44 @@ class JsonWriter {
     this.byte(0x5d);
   }
 
+  // an array that starts with an [x, y] pair: points, wall faces, control points
+  private points(items: readonly unknown[]): void {
+    const n = items.length;
+    this.byte(0x5b);
+    for (let i = 0; i < n; i++) {
+      const item = items[i];
+      if (isPoint(item)) {
+        // the buffer may grow inside coordinate() (numbers off the millimetre grid): no alias
+        this.reserve(2 * 20 + 4);
+        if (i > 0) this.bytes[this.length++] = 0x2c;
+        this.bytes[this.length++] = 0x5b;
+        this.coordinate(item[0]);
+        this.reserve(21);
+        this.bytes[this.length++] = 0x2c;
+        this.coordinate(item[1]);
+        this.byte(0x5d);
+        continue;
+      }
+      if (i > 0) this.byte(0x2c);
+      if (item === undefined || typeof item === 'function') this.ascii('null');
+      else this.value(item);
+    }
+    this.byte(0x5d);
+  }
+
+  // a number; millimetres written in place (the caller reserved 20 bytes), others by number()
+  private coordinate(x: number): void {
+    const a = x < 0 ? -x : x;
+    const m = Math.round(a * 1000);
+    if (a >= 1e-3 && a < 1e6 && m / 1000 === a) {
+      if (x < 0) this.bytes[this.length++] = 0x2d;
+      const whole = (m / 1000) | 0;
+      this.unsigned(whole);
+      const milli = m - whole * 1000;
+      if (milli !== 0) this.milli(milli);
+    } else this.number(x);
+  }
+
   private object(o: Record<string, unknown>): void {
     if (typeof (o as { toJSON?: unknown }).toJSON === 'function') {
       throw new TypeError('jsonBytes: objects with toJSON are not written here');
@@ -245,6 +287,11 @@ class JsonWriter {
     }
     this.byte(0x7d);
   }
+}
+
+// an array of exactly two numbers
+function isPoint(v: unknown): v is readonly [number, number] {
+  return Array.isArray(v) && v.length === 2 && typeof v[0] === 'number' && typeof v[1] === 'number';
 }
 
 /** The writer's buffer, kept between calls (the core is synchronous, so one at a time uses it). */

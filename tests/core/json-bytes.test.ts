@@ -48,6 +48,18 @@ describe('jsonBytesWithSha256 writes the same text as JSON.stringify', () => {
     else expect(made).toBeNull();
   });
 
+  // arrays that start with an [x, y] pair take a path of their own; anything may follow
+  const item = fc.oneof(
+    fc.tuple(fc.double(), fc.double()),
+    fc.tuple(rounded, rounded),
+    fc.array(rounded, { maxLength: 3 }),
+    fc.constantFrom(undefined, null, 'x', [1e21, -1e-7], [-0, 5e-324]),
+  );
+  test.prop([fc.tuple(fc.tuple(rounded, rounded), fc.array(item, { maxLength: 40 }))], { numRuns: 400, seed: 20261205 })('arrays of points, mixed with other items', ([first, rest]) => {
+    const v = [first, ...rest];
+    expect(jsonWithSha256(v)).toEqual(reference(v));
+  });
+
   test('undefined and functions are skipped in objects and written null in arrays', () => {
     const v = { a: undefined, b: () => 1, c: [undefined, () => 1, 2], d: 'x' };
     expect(jsonWithSha256(v)).toEqual(reference(v));
