@@ -7,18 +7,32 @@ export interface PolylineInput {
 /** Called for each candidate segment id; return `true` to stop the search early. */
 export type SegmentVisitor = (id: number) => boolean | void;
 
+/** Called for each candidate pair of segment ids, i < j. */
+export type PairVisitor = (i: number, j: number) => void;
+
+// flags of a cell entry: the cell is in the first column / first row of its segment's cell range
+const FIRST_COLUMN = 1;
+const FIRST_ROW = 2;
+const FIRST_CELL = FIRST_COLUMN | FIRST_ROW;
+
 /**
  * Static spatial index over line segments for broad-phase queries by axis-aligned box: a uniform grid whose
  * cell lists are packed into one Int32Array by counting sort. Boxes are kept as exact Float64 values and the
  * point-to-cell map is monotone, so a query never misses a segment whose box meets the query box.
  *
  * Lifecycle: construct with the total count, {@link SegmentIndex.add} every segment, {@link SegmentIndex.finish},
- * then query with {@link SegmentIndex.search} or {@link SegmentIndex.searchInto}. Ids are 0, 1, 2, … in the
- * order added; each id remembers the polyline and segment it came from. Axes x right, y up, metres.
+ * then query with {@link SegmentIndex.search} or {@link SegmentIndex.searchInto}, or list every pair of
+ * segments whose boxes meet with {@link SegmentIndex.forEachCandidatePair}. Ids are 0, 1, 2, … in the order
+ * added; each id remembers the polyline and segment it came from. Axes x right, y up, metres.
  *
- * Cost: build O(n + cells touched), query O(cells in the box + candidates). The cell side is at least the
- * mean segment extent and at least √(area / n), so there are at most about 3n cells; a few segments spanning
- * the whole extent can raise the stored entries towards n√n.
+ * Each segment occupies the rectangle of cells its box touches (its cell range); every cell entry also
+ * records whether its cell is in the first column and in the first row of that range, which is all the
+ * pair listing needs to report a pair in one cell only.
+ *
+ * Cost: build O(n + cells touched), query O(cells in the box + candidates), pair listing O(cells +
+ * {@link SegmentIndex.candidatePairCount}). The cell side is at least the mean segment extent and at least
+ * √(area / n), so there are at most about 3n cells; a few segments spanning the whole extent can raise the
+ * stored entries towards n√n.
  *
  * @example
  * const index = SegmentIndex.fromPolylines([{ coords: new Float64Array([0, 0, 1, 0, 1, 1]), closed: true }]);
@@ -32,8 +46,9 @@ export class SegmentIndex {
   private readonly boxes: Float64Array;
   private readonly polylineOf: Int32Array;
   private readonly segmentOf: Int32Array;
-  // last query that met each segment, to report a segment once though it sits in several cells
-  private readonly stamp: Int32Array;
+  // last query that met each segment, to report a segment once though it sits in several cells;
+  // allocated by the first query
+  private stamp = new Int32Array(0);
   private query = 0;
   private added = 0;
   private finished = false;
@@ -46,6 +61,10 @@ export class SegmentIndex {
   private rows = 0;
   private cellStart = new Int32Array(1);
   private cellItems = new Int32Array(0);
+  // FIRST_COLUMN | FIRST_ROW flags of each entry of cellItems
+  private cellFlags = new Uint8Array(0);
+  private pairSlots = 0;
+  private crowd = 0;
 
   /**
    * @param numItems total number of segments that will be added (≥ 0).
@@ -59,7 +78,6 @@ export class SegmentIndex {
     this.boxes = new Float64Array(4 * numItems);
     this.polylineOf = new Int32Array(numItems);
     this.segmentOf = new Int32Array(numItems);
-    this.stamp = new Int32Array(numItems);
   }
 
   /**
@@ -149,11 +167,15 @@ export class SegmentIndex {
     this.rows = Math.floor(h * this.inv) + 1;
     const cells = this.cols * this.rows;
 
-    // counting sort: count entries per cell, prefix-sum into starts, then place each id;
-    // each segment's cell range [cx0, cx1] x [cy0, cy1] is computed once and kept for the second pass
+    // counting sort: count entries per cell, sum into cell ends, then place the ids from the last down, each
+    // at the end of its cell's free part, which leaves each cell's start and its ids in ascending order.
+    // Each segment's cell range [cx0, cx1] x [cy0, cy1] is computed once and kept for the second pass.
+    // An entry joining a cell that already holds k entries adds k to the pairs within cells.
     const cols = this.cols;
     const range = new Int32Array(4 * n);
     const start = new Int32Array(cells + 1);
+    let pairSlots = 0;
+    let crowd = 0;
     for (let i = 0; i < n; i++) {
       const cx0 = this.cellX(b[4 * i]);
       const cy0 = this.cellY(b[4 * i + 1]);
@@ -164,20 +186,79 @@ export class SegmentIndex {
       range[4 * i + 2] = cx1;
       range[4 * i + 3] = cy1;
       for (let cy = cy0; cy <= cy1; cy++) {
-        for (let cx = cx0; cx <= cx1; cx++) start[cy * cols + cx + 1]++;
+        for (let cx = cx0; cx <= cx1; cx++) {
+          const before = start[cy * cols + cx]++;
+          pairSlots += before;
+          if (before >= crowd) crowd = before + 1;
+        }
       }
     }
-    for (let c = 0; c < cells; c++) start[c + 1] += start[c];
-    const items = new Int32Array(start[cells]);
-    const next = start.slice(0, cells);
-    for (let i = 0; i < n; i++) {
-      const cx0 = range[4 * i], cx1 = range[4 * i + 2], cy1 = range[4 * i + 3];
-      for (let cy = range[4 * i + 1]; cy <= cy1; cy++) {
-        for (let cx = cx0; cx <= cx1; cx++) items[next[cy * cols + cx]++] = i;
+    for (let c = 1; c < cells; c++) start[c] += start[c - 1];
+    const entries = start[cells - 1];
+    start[cells] = entries;
+    const items = new Int32Array(entries);
+    const flags = new Uint8Array(entries);
+    for (let i = n - 1; i >= 0; i--) {
+      const cx0 = range[4 * i], cy0 = range[4 * i + 1], cx1 = range[4 * i + 2], cy1 = range[4 * i + 3];
+      for (let cy = cy0; cy <= cy1; cy++) {
+        const row = cy === cy0 ? FIRST_ROW : 0;
+        for (let cx = cx0; cx <= cx1; cx++) {
+          const k = --start[cy * cols + cx];
+          items[k] = i;
+          flags[k] = cx === cx0 ? row | FIRST_COLUMN : row;
+        }
       }
     }
     this.cellStart = start;
     this.cellItems = items;
+    this.cellFlags = flags;
+    this.pairSlots = pairSlots;
+    this.crowd = crowd;
+  }
+
+  /**
+   * Σ k(k − 1)/2 over the cells, for k entries in a cell: the pairs {@link SegmentIndex.forEachCandidatePair}
+   * examines, and an upper bound on the pairs it reports. Known once finished (0 before).
+   */
+  get candidatePairCount(): number {
+    return this.pairSlots;
+  }
+
+  /** The most entries in one cell. Known once finished (0 before). */
+  get maxCellItems(): number {
+    return this.crowd;
+  }
+
+  /**
+   * Visit every pair of segments whose bounding boxes intersect or touch (exact Float64 comparison) as
+   * `visit(i, j)` with i < j, each pair once: in the lowest cell both occupy, the cell (max of the first
+   * columns, max of the first rows) of their two cell ranges, which is the cell where one of the two entries
+   * is in the first column of its range and one is in the first row. Boxes that meet share a cell because the
+   * point-to-cell map is monotone, so no pair is missed. Order: by cell, then by position in the cell
+   * (deterministic, not by id). Cost O(cells + candidatePairCount): quadratic in crowded cells.
+   * @throws {Error} when the index is not finished.
+   * @example
+   * const index = SegmentIndex.fromPolylines([{ coords: new Float64Array([0, 0, 1, 0, 1, 1]), closed: true }]);
+   * index.forEachCandidatePair((i, j) => console.log(i, j)); // 0 1, 0 2, 1 2: the sides share vertices
+   */
+  forEachCandidatePair(visit: PairVisitor): void {
+    this.assertFinished();
+    const { boxes: b, cellStart: start, cellItems: items, cellFlags: flags } = this;
+    const cells = start.length - 1;
+    for (let c = 0; c < cells; c++) {
+      const end = start[c + 1];
+      for (let u = start[c]; u < end - 1; u++) {
+        const i = items[u];
+        const f = flags[u];
+        const x0 = b[4 * i], y0 = b[4 * i + 1], x1 = b[4 * i + 2], y1 = b[4 * i + 3];
+        for (let v = u + 1; v < end; v++) {
+          if ((f | flags[v]) !== FIRST_CELL) continue;
+          const j = items[v];
+          if (b[4 * j] > x1 || b[4 * j + 1] > y1 || b[4 * j + 2] < x0 || b[4 * j + 3] < y0) continue;
+          visit(i, j);
+        }
+      }
+    }
   }
 
   /**
@@ -259,6 +340,7 @@ export class SegmentIndex {
   }
 
   private nextQuery(): number {
+    if (this.stamp.length !== this.numItems) this.stamp = new Int32Array(this.numItems);
     if (this.query === 0x7fffffff) {
       this.stamp.fill(0);
       this.query = 0;

@@ -53,6 +53,51 @@ describe('SegmentIndex', () => {
     expect(visited.sort((a, b) => a - b)).toEqual(expected);
   });
 
+  // reference: brute force over all pairs of boxes, touching included (the index compares exact Float64 boxes)
+  test.prop([segments])('forEachCandidatePair visits exactly the pairs whose boxes meet, each once with i < j (oracle)', (segs) => {
+    const index = build(segs);
+    const expected: string[] = [];
+    for (let i = 0; i < segs.length; i++) {
+      for (let j = i + 1; j < segs.length; j++) {
+        const [p, q] = [box(segs[i]), box(segs[j])];
+        if (p[0] <= q[2] && q[0] <= p[2] && p[1] <= q[3] && q[1] <= p[3]) expected.push(`${i},${j}`);
+      }
+    }
+    const visited: string[] = [];
+    index.forEachCandidatePair((i, j) => {
+      expect(i).toBeLessThan(j);
+      visited.push(`${i},${j}`);
+    });
+    expect([...visited].sort()).toEqual([...expected].sort());
+    expect(index.candidatePairCount).toBeGreaterThanOrEqual(visited.length);
+    expect(index.maxCellItems).toBeLessThanOrEqual(segs.length);
+  });
+
+  test('candidate pairs: one cell, spread-out cells, a long segment across many cells, and an empty index', () => {
+    const listed = (index: SegmentIndex) => {
+      const out: [number, number][] = [];
+      index.forEachCandidatePair((i, j) => void out.push([i, j]));
+      return out;
+    };
+    // all at one point: one cell of k entries, every pair listed
+    const same = build(Array.from({ length: 5 }, (): Seg => [2, 3, 2, 3]));
+    expect(same.candidatePairCount).toBe(10);
+    expect(same.maxCellItems).toBe(5);
+    expect(listed(same).length).toBe(10);
+    // a collinear run: each segment meets its neighbours only, at shared endpoints
+    const line = build(Array.from({ length: 50 }, (_, i): Seg => [i, 0, i + 1, 0]));
+    expect(listed(line).sort((p, q) => p[0] - q[0])).toEqual(Array.from({ length: 49 }, (_, i) => [i, i + 1]));
+    // a long diagonal shares many cells with short segments along it, yet each pair comes once
+    const diagonal: Seg[] = [[0, 0, 40, 40], ...Array.from({ length: 40 }, (_, i): Seg => [i, i + 0.5, i + 1, i + 0.5])];
+    const pairs = listed(build(diagonal));
+    expect(new Set(pairs.map(String)).size).toBe(pairs.length);
+    expect(pairs.filter(([i]) => i === 0).length).toBe(40);
+    const empty = build([]);
+    expect(listed(empty)).toEqual([]);
+    expect(empty.candidatePairCount).toBe(0);
+    expect(() => new SegmentIndex(1).forEachCandidatePair(() => {})).toThrow('Index not finished - call finish().');
+  });
+
   test('fromPolylines maps ids to (polyline, segment), closing segments included', () => {
     const index = SegmentIndex.fromPolylines([
       { coords: new Float64Array([0, 0, 1, 0, 1, 1]), closed: true },
