@@ -162,7 +162,11 @@ export class SegmentIndex {
     // of its bounding box, so cells sized to the box (w·h/n each) would hold dozens of segments
     const cell = Math.max((2 * extent) / n, Math.sqrt((w / n) * h / 4), Math.max(w, h) / n);
     // all segments at one point: any positive cell side gives a single cell
-    this.inv = cell > 0 ? 1 / cell : 1;
+    const inv = cell > 0 ? 1 / cell : 1;
+    // spans of subnormal size: 1 / cell overflows, or rounding breaks the bound of about 6n
+    // cells; one cell then (every pair a candidate, still exact)
+    const sane = Number.isFinite(inv) && (Math.floor(w * inv) + 1) * (Math.floor(h * inv) + 1) <= 8 * n + 16;
+    this.inv = sane ? inv : 0;
     this.cols = Math.floor(w * this.inv) + 1;
     this.rows = Math.floor(h * this.inv) + 1;
     const cells = this.cols * this.rows;

@@ -245,6 +245,9 @@ describe('findCrossings', () => {
       [{ coords: new Float64Array(40).fill(3), closed: false }, { coords: f64(3, 3), closed: true }, { coords: f64(0, 3, 6, 3), closed: false }],
       [{ coords: f64(0, 0, 2, 0, 2, 2, 0, 2), closed: true }, { coords: f64(2, 0, 4, 0, 4, 2, 2, 2), closed: true }], // squares sharing an edge
       [{ coords: f64(0, 0, 1e-9, 0, 1e-9, 1e-9), closed: true }, { coords: f64(1e-9, 0, 1e6, 0), closed: false }], // tiny and huge
+      // a span of subnormal size (1 / cell side overflows): one cell, no hang (orientation signs of
+      // subnormal coordinates underflow, so only points on one line, where they are 0 anyway)
+      [{ coords: f64(-5e-324, 0, -5e-324, 5e-324, -5e-324, 5e-324, -5e-324, 5e-324), closed: true }],
       [{ coords: f64(), closed: true }, { coords: f64(1, 1), closed: false }, { coords: f64(5, 5), closed: true }],
     ];
     for (const polys of cases) for (const k of [Infinity, 1, 2]) expectStrategiesAgree(polys, k);
