@@ -146,8 +146,8 @@ function planOnce(p: TrackParams, rng: Rng, noise: LoopNoise, loopSign: 1 | -1, 
   }
 
   // wishes: long straights between features (log-normal: a few long, many short), short ones
-  // inside; of WISH_DRAWS draws, keep the first whose coarse outline keeps its distance, else
-  // the one that overlaps least
+  // inside; of WISH_DRAWS draws, keep the first whose coarse outline keeps its distance (none:
+  // this ordering is given up)
   const inside = new Uint8Array(n);
   for (let i = 0; i < n; i++) inside[i] = draft.feature[i] === draft.feature[(i + 1) % n] ? 1 : 0;
   const lo = new Float64Array(n).fill(MIN_STRAIGHT_M);
