@@ -92,22 +92,31 @@ export function footprintClearance(strip: RoadStrip, spec: FootprintSpec, x: num
     out.exact = false;
     return out;
   }
+  // wall vertices inside the rectangle lower the margin by their depth; of those outside, the
+  // squared distances are compared and one square root taken at the end (the same answer:
+  // sqrt is monotonic)
   const window = reach.window;
+  const L = strip.left, R = strip.right;
+  let outside2 = Infinity, outsideSide = 0;
+  let i = (((centre - window) % n) + n) % n;
   for (let w = -window; w <= window + 1; w++) {
-    const i = (((centre + w) % n) + n) % n;
-    const dl = vertexToRectangle(strip.left[2 * i] - cx, strip.left[2 * i + 1] - cy, ux, uy, halfL, halfW);
-    if (dl < out.marginM) (out.marginM = dl), (out.side = 1);
-    const dr = vertexToRectangle(strip.right[2 * i] - cx, strip.right[2 * i + 1] - cy, ux, uy, halfL, halfW);
-    if (dr < out.marginM) (out.marginM = dr), (out.side = -1);
+    for (let side = 1; side >= -1; side -= 2) {
+      const face = side > 0 ? L : R;
+      const dx = face[2 * i] - cx, dy = face[2 * i + 1] - cy;
+      const ox = Math.abs(dx * ux + dy * uy) - halfL;
+      const oy = Math.abs(dy * ux - dx * uy) - halfW;
+      if (ox < 0 && oy < 0) {
+        const depth = ox > oy ? ox : oy;
+        if (depth < out.marginM) (out.marginM = depth), (out.side = side);
+      } else {
+        const px = ox > 0 ? ox : 0, py = oy > 0 ? oy : 0;
+        const d2 = px * px + py * py;
+        if (d2 < outside2) (outside2 = d2), (outsideSide = side);
+      }
+    }
+    i = i + 1 === n ? 0 : i + 1;
   }
+  const d = Math.sqrt(outside2);
+  if (d < out.marginM) (out.marginM = d), (out.side = outsideSide);
   return out;
-}
-
-// distance from a point (relative to the rectangle's centre) to the rectangle; minus the depth inside it
-function vertexToRectangle(dx: number, dy: number, ux: number, uy: number, halfL: number, halfW: number): number {
-  const ox = Math.abs(dx * ux + dy * uy) - halfL;
-  const oy = Math.abs(-dx * uy + dy * ux) - halfW;
-  if (ox < 0 && oy < 0) return Math.max(ox, oy);
-  const px = ox > 0 ? ox : 0, py = oy > 0 ? oy : 0;
-  return Math.sqrt(px * px + py * py);
 }
