@@ -214,18 +214,8 @@ class JsonWriter {
       }
       const item = items[i];
       if (typeof item === 'number') {
-        // millimetres written here rather than through number(), so the double is not boxed
-        // to be passed to a call
-        const a = item < 0 ? -item : item;
-        const m = Math.round(a * 1000);
-        if (a >= 1e-3 && a < 1e6 && m / 1000 === a) {
-          this.reserve(20);
-          if (item < 0) this.bytes[this.length++] = 0x2d;
-          const whole = (m / 1000) | 0;
-          this.unsigned(whole);
-          const milli = m - whole * 1000;
-          if (milli !== 0) this.milli(milli);
-        } else this.number(item);
+        this.reserve(20);
+        this.coordinate(item);
       } else if (item === undefined || typeof item === 'function') this.ascii('null');
       else this.value(item);
     }
@@ -257,7 +247,8 @@ class JsonWriter {
     this.byte(0x5d);
   }
 
-  // a number; millimetres written in place (the caller reserved 20 bytes), others by number()
+  // a number; millimetres written in place (the caller reserved 20 bytes), others by number();
+  // small enough to be inlined into the array loops, so the double is not boxed for a call
   private coordinate(x: number): void {
     const a = x < 0 ? -x : x;
     const m = Math.round(a * 1000);
