@@ -9,7 +9,7 @@ import { solveStraights } from './closure.js';
 import { drawCornerShape, type ShapeKind } from './corner-shape.js';
 import type { Plan, PlannedCorner } from './plan-types.js';
 import { cornerDisplacement } from './trace.js';
-import { macroOverlap } from './macro-check.js';
+import { macroCollision, type MacroCollision } from './macro-check.js';
 
 const DEG = Math.PI / 180;
 
@@ -24,12 +24,20 @@ export function plannedMinRadiusM(minCornerRadiusM: number): number {
   return minCornerRadiusM * (1 + RADIUS_MARGIN);
 }
 
-/** Orderings of the corners tried per attempt before the attempt is given up. */
-export const ORDER_DRAWS = 4;
+/**
+ * Orderings of the corners tried per attempt before the attempt is given up. Many orderings
+ * with few wish draws each: whether an outline can keep its distance depends on the ordering
+ * (and its angles) far more than on the straights, and an ordering costs little more than a draw.
+ */
+export const ORDER_DRAWS = 16;
 /** Corner count up to which the ordering band keeps its full width (100–200°). */
 export const BAND_CORNERS = 15;
-/** Draws of straight-length wishes per ordering; the first whose outline keeps its distance is kept. */
-export const WISH_DRAWS = 8;
+/** Draws of straight-length wishes per ordering; the first whose outline keeps its distance (after repair) is kept. */
+export const WISH_DRAWS = 3;
+/** Repair steps per wish draw: an outline that comes too close to itself is pushed apart this often before the next draw. */
+export const REPAIR_STEPS = 3;
+/** Each repair step aims this share of the required distance beyond it (the step is solved to first order). */
+export const REPAIR_MARGIN = 0.1;
 /** Log-normal spread of the straights between features (a few long, many short). */
 export const STRAIGHT_SIGMA = 0.9;
 
@@ -146,8 +154,9 @@ function planOnce(p: TrackParams, rng: Rng, noise: LoopNoise, loopSign: 1 | -1, 
   }
 
   // wishes: long straights between features (log-normal: a few long, many short), short ones
-  // inside; of WISH_DRAWS draws, keep the first whose coarse outline keeps its distance (none:
-  // this ordering is given up)
+  // inside; of WISH_DRAWS draws, keep the first whose coarse outline keeps its distance, after
+  // up to REPAIR_STEPS steps that push a pair coming too close apart (none: this ordering is
+  // given up)
   const inside = new Uint8Array(n);
   for (let i = 0; i < n; i++) inside[i] = draft.feature[i] === draft.feature[(i + 1) % n] ? 1 : 0;
   const lo = new Float64Array(n).fill(MIN_STRAIGHT_M);
@@ -167,12 +176,88 @@ function planOnce(p: TrackParams, rng: Rng, noise: LoopNoise, loopSign: 1 | -1, 
       wish[i] *= straightTotal / wishSum;
       weight[i] = Math.max(wish[i], 5);
     }
-    const d = solveStraights(cosH, sinH, wish, weight, lo, rx, ry, straightTotal);
-    if (d !== null && !macroOverlap(corners, local, d, required, p.minCornerRadiusM, outline)) best = d;
+    let d = solveStraights(cosH, sinH, wish, weight, lo, rx, ry, straightTotal);
+    // whether straights above their bounds can close the lap does not depend on the wishes:
+    // when the first draw finds none, the others would not either
+    if (d === null && draw === 0) return null;
+    for (let step = 0; d !== null; step++) {
+      const hit = macroCollision(corners, local, d, required, p.minCornerRadiusM, outline);
+      if (hit === null) best = d;
+      if (hit === null || step === REPAIR_STEPS) break;
+      const gain = required * (1 + REPAIR_MARGIN) + chordBulgeM(corners, hit.a) + chordBulgeM(corners, hit.b) - hit.distanceM;
+      d = pushApart(cosH, sinH, d, hit, weight, lo, rx, ry, straightTotal, gain);
+    }
   }
   if (best === null) return null;
   const straights = best;
   return { corners, straights, loopSign, lengthM: p.lengthM };
+}
+
+/**
+ * One repair step for a closed lap whose outline pieces `hit.a` and `hit.b` come too close:
+ * the straights move along the steepest ascent of the pair's separation (measured in the
+ * solve's weighting, so long straights give more), kept closed and at the exact length by
+ * solveStraights, with the step scaled so that to first order the pair gains `gainM`. The
+ * corners are untouched, so the turning and radii stay as planned; the straights stay >= lo.
+ *
+ * @param d the current straights (closing the lap)
+ * @returns the new straights, or null when no step along the ascent parts the pair or closes
+ */
+export function pushApart(
+  cosH: Float64Array,
+  sinH: Float64Array,
+  d: Float64Array,
+  hit: MacroCollision,
+  weight: Float64Array,
+  lo: Float64Array,
+  rx: number,
+  ry: number,
+  total: number,
+  gainM: number,
+): Float64Array | null {
+  const n = d.length;
+  const g = separationGradient(cosH, sinH, hit, n);
+  // a trial step of one weight unit shows how much separation the closing solve leaves of the ascent
+  const wish = new Float64Array(n);
+  for (let i = 0; i < n; i++) wish[i] = d[i] + weight[i] * g[i];
+  const trial = solveStraights(cosH, sinH, wish, weight, lo, rx, ry, total);
+  if (trial === null) return null;
+  let slope = 0;
+  for (let i = 0; i < n; i++) slope += g[i] * (trial[i] - d[i]);
+  if (!(slope > 1e-9)) return null;
+  const scale = gainM / slope;
+  for (let i = 0; i < n; i++) wish[i] = d[i] + scale * weight[i] * g[i];
+  return solveStraights(cosH, sinH, wish, weight, lo, rx, ry, total);
+}
+
+/**
+ * How far the traced corner bulges beyond outline piece `piece` (a chord over half a corner),
+ * taken as the sagitta of a circular arc of the corner's mean radius: a repair that parts
+ * chords by the required distance alone would leave the corners themselves too close. 0 for
+ * a straight.
+ */
+function chordBulgeM(corners: readonly PlannedCorner[], piece: number): number {
+  if (piece % 3 === 2) return 0;
+  const c = corners[Math.floor(piece / 3)];
+  return (c.lengthM / c.angleRad) * (1 - Math.cos(c.angleRad / 4));
+}
+
+/**
+ * How the separation of the pair along `hit`'s direction changes per metre of each straight:
+ * straight j moves b's closest point relative to a's by its heading times the share of it
+ * lying between the two points (1 for straights wholly between, the closest point's
+ * parameter for a straight that is one of the pieces).
+ */
+function separationGradient(cosH: Float64Array, sinH: Float64Array, hit: MacroCollision, n: number): Float64Array {
+  const g = new Float64Array(n);
+  const ia = Math.floor(hit.a / 3), ib = Math.floor(hit.b / 3);
+  // share of straight j before a piece's closest point: whole before its corner, its parameter on itself
+  const before = (j: number, i: number, onStraight: boolean, t: number) => (j < i ? 1 : j === i && onStraight ? t : 0);
+  for (let j = ia; j <= ib && j < n; j++) {
+    const share = before(j, ib, hit.b % 3 === 2, hit.tb) - before(j, ia, hit.a % 3 === 2, hit.ta);
+    g[j] = share * (cosH[j] * hit.nx + sinH[j] * hit.ny);
+  }
+  return g;
 }
 
 /**
