@@ -5,7 +5,7 @@
  */
 
 /** Generator version: part of every track and of its id; bump when output changes. */
-export const GENERATOR_VERSION = '1.2.0';
+export const GENERATOR_VERSION = '1.3.0';
 
 /** Shipped coordinates and lengths are rounded to this many decimals of a metre (1 mm). */
 export const COORD_DECIMALS = 3;
