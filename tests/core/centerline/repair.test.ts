@@ -45,19 +45,25 @@ function closureError(r: ReturnType<typeof rectangle>, d: Float64Array): number 
   return Math.hypot(x, y);
 }
 
+// a 400 m by 45 m rectangle (two corners of radius 20 m and 5 m of straight across), closed by
+// the solve: its long sides are 45 m apart
+function thinLap() {
+  const r = rectangle();
+  const total = 2 * 400 + 2 * 5;
+  const wish = Float64Array.from([5, 400, 5, 400]);
+  const weight = wish.map((w) => Math.max(w, 5));
+  const lo = new Float64Array(4).fill(MIN_STRAIGHT_M);
+  const d = solveStraights(r.cosH, r.sinH, wish, weight, lo, r.rx, r.ry, total);
+  return { r, total, weight, lo, d };
+}
+
 describe('pushApart', () => {
   it('parts a long, thin lap whose sides come too close, keeping closure, length and the straight minimum', () => {
-    const r = rectangle();
-    const n = 4;
-    // a 400 m by 45 m rectangle (two corners of radius 20 m and 5 m of straight across): its
-    // long sides are 45 m apart, less than the 60 m required
-    const total = 2 * 400 + 2 * 5;
-    const wish = Float64Array.from([5, 400, 5, 400]);
-    const weight = wish.map((w) => Math.max(w, 5));
-    const lo = new Float64Array(n).fill(MIN_STRAIGHT_M);
+    // the long sides are 45 m apart, less than the 60 m required
+    const { r, total, weight, lo, d: first } = thinLap();
     const required = 60;
-    let d = solveStraights(r.cosH, r.sinH, wish, weight, lo, r.rx, r.ry, total)!;
-    expect(d).not.toBeNull();
+    expect(first).not.toBeNull();
+    let d = first!;
     const hit = macroCollision(r.corners, r.local, d, required, 20);
     expect(hit).not.toBeNull();
     expect(hit!.a).toBeLessThan(hit!.b);
@@ -75,26 +81,17 @@ describe('pushApart', () => {
   });
 
   it('leaves the lap as it is when the pair cannot be parted (no gain along the ascent)', () => {
-    const r = rectangle();
-    const total = 2 * 400 + 2 * 5;
-    const wish = Float64Array.from([5, 400, 5, 400]);
-    const weight = wish.map((w) => Math.max(w, 5));
-    const lo = new Float64Array(4).fill(MIN_STRAIGHT_M);
-    const d = solveStraights(r.cosH, r.sinH, wish, weight, lo, r.rx, r.ry, total)!;
+    const { r, total, weight, lo, d } = thinLap();
     // a direction perpendicular to every straight's effect: nothing to gain, so no step is taken
     const hit = { a: 0, b: 6, ta: 0, tb: 0, nx: 0, ny: 0, distanceM: 5 };
-    expect(pushApart(r.cosH, r.sinH, d, hit, weight, lo, r.rx, r.ry, total, 30)).toBeNull();
+    expect(pushApart(r.cosH, r.sinH, d!, hit, weight, lo, r.rx, r.ry, total, 30)).toBeNull();
   });
 });
 
 describe('macroCollision', () => {
   it('finds a pair exactly when macroOverlap does, with a unit direction', () => {
-    const r = rectangle();
-    const total = 2 * 400 + 2 * 5;
-    const wish = Float64Array.from([5, 400, 5, 400]);
-    const weight = wish.map((w) => Math.max(w, 5));
-    const lo = new Float64Array(4).fill(MIN_STRAIGHT_M);
-    const d = solveStraights(r.cosH, r.sinH, wish, weight, lo, r.rx, r.ry, total)!;
+    const { r, d: solved } = thinLap();
+    const d = solved!;
     for (const required of [10, 30, 60]) {
       const hit = macroCollision(r.corners, r.local, d, required, 20);
       expect(hit !== null).toBe(macroOverlap(r.corners, r.local, d, required, 20));
