@@ -32,7 +32,8 @@ export interface ClearanceViolation {
 export interface ClearanceResult {
   /**
    * Smallest gap between the wall solids of two parts of the lap more than πR apart along it,
-   * metres (capped at measureBeyondM; at most 0 when only violations are searched).
+   * metres (capped at measureBeyondM). When only violations are searched (measureBeyondM 0) it
+   * is at most 0, and the search stops once maxViolations are found.
    */
   readonly minGapM: number;
   readonly violations: ClearanceViolation[];
@@ -94,7 +95,7 @@ export function checkClearance(input: ClearanceInput): ClearanceResult {
   // curvature bound the radius rule checks, so only pairs farther apart along the lap count
   // (also for the measured gap: the closest approach of the lap to itself, not of a bend to itself)
   const exemptM = Math.PI * minRadiusM;
-  const scan: PairScan = { points, s, lapLengthM, reach, marginM, exemptM, n, maxViolations, minGap: beyond, violations: [] };
+  const scan: PairScan = { points, s, lapLengthM, reach, marginM, exemptM, n, maxViolations, measureOnlyViolations: beyond === 0, minGap: beyond, violations: [] };
   // chunk pairs by a lower bound of their gap (box distance less both reaches), in order of that
   // bound (a counting sort into BOUND_STEP_M buckets), stopping once the bound reaches both the
   // margin (no violation left) and the smallest gap found (no smaller gap left: branch and bound);
@@ -136,7 +137,10 @@ function scanRound(scan: PairScan, cells: ChunkCells, from: number, to: number, 
   const pairA: number[] = [];
   const pairB: number[] = [];
   const bucketOf: number[] = [];
-  const buckets = Math.ceil(to / BOUND_STEP_M) + 2;
+  // buckets of BOUND_STEP_M, wider when the range is absurdly long (a margin of a million metres
+  // in an uploaded track's params): the order only steers the search, the answer is the same
+  const step = Math.max(BOUND_STEP_M, to / MAX_BUCKETS);
+  const buckets = Math.ceil(to / step) + 2;
   const bucketSize = new Int32Array(buckets + 1);
   for (let a = 0; a < chunks; a++) {
     const aFrom = a * CHUNK, aTo = Math.min(n, aFrom + CHUNK);
@@ -146,7 +150,7 @@ function scanRound(scan: PairScan, cells: ChunkCells, from: number, to: number, 
       const lower = boxDistance(box, a, b) - chunkReach[a] - segmentReach[b];
       if (lower >= to || lower < from) continue;
       // bucket 0 holds bounds <= 0, bucket k >= 1 bounds in ((k - 1)·step, k·step]
-      const k = lower <= 0 ? 0 : Math.min(buckets - 1, Math.ceil(lower / BOUND_STEP_M));
+      const k = lower <= 0 ? 0 : Math.min(buckets - 1, Math.ceil(lower / step));
       pairA.push(a);
       pairB.push(b);
       bucketOf.push(k);
@@ -159,8 +163,12 @@ function scanRound(scan: PairScan, cells: ChunkCells, from: number, to: number, 
   for (let p = 0; p < pairA.length; p++) order[fill[bucketOf[p]]++] = p;
   for (let k = 0; k < buckets; k++) {
     // every bound in bucket k exceeds (k - 1)·step
-    if (k >= 1 && (k - 1) * BOUND_STEP_M >= Math.max(scan.marginM, scan.minGap)) return true;
-    for (let o = bucketSize[k]; o < bucketSize[k + 1]; o++) scanChunkPair(scan, pairA[order[o]], pairB[order[o]], box, segmentReach);
+    if (k >= 1 && (k - 1) * step >= Math.max(scan.marginM, scan.minGap)) return true;
+    for (let o = bucketSize[k]; o < bucketSize[k + 1]; o++) {
+      scanChunkPair(scan, pairA[order[o]], pairB[order[o]], box, segmentReach);
+      // violations only (no gap measured): nothing more to find once the list is full
+      if (scan.measureOnlyViolations && scan.violations.length >= scan.maxViolations) return true;
+    }
   }
   return last;
 }
@@ -174,6 +182,8 @@ const FIRST_ROUND_SHARE = 0.625;
 
 /** Width of the buckets chunk pairs are ordered in by their lower bound, metres. */
 const BOUND_STEP_M = 0.5;
+/** Most buckets one round sorts chunk pairs into. */
+const MAX_BUCKETS = 4096;
 
 // the state of a clearance scan: inputs, and the smallest gap and violations found so far
 interface PairScan {
@@ -185,6 +195,8 @@ interface PairScan {
   readonly exemptM: number;
   readonly n: number;
   readonly maxViolations: number;
+  /** No gap is measured (measureBeyondM 0): the scan may stop once the violations list is full. */
+  readonly measureOnlyViolations: boolean;
   minGap: number;
   readonly violations: ClearanceViolation[];
 }

@@ -37,4 +37,16 @@ describe("rule 'clearance'", () => {
     t.params.clearanceM = 66;
     expect(validateTrack(t as Track).issues).toEqual([]);
   });
+
+  // an uploaded track may carry any finite margin: the search must stay bounded (it once sorted
+  // pairs into 4·10⁹ buckets of 0.5 m and ran for minutes)
+  test('an absurd margin (1e9 m) is answered: every far pair is too close, a short list of issues', () => {
+    const t = cloneTrack(base);
+    t.params.clearanceM = 1e9;
+    const r = validateTrack(t as Track);
+    expect(codesOf(r)).toEqual(['clearance']);
+    expect(r.issues.length).toBeGreaterThan(0);
+    expect(r.issues.length).toBeLessThanOrEqual(8);
+    for (const issue of r.issues) expect(issue.limit).toBe(1e9);
+  });
 });
