@@ -80,35 +80,27 @@ describe("rule 'structure'", () => {
     }
   };
   walk(base, [], 4);
+  // the base track with the field at `path` replaced, checked: an answer, well formed, and never
+  // the last-resort catch in validateTrack
+  const expectAnsweredWith = (path: string[], value: unknown): void => {
+    const t = cloneTrack(base) as unknown as Record<string, unknown>;
+    let o = t;
+    for (const k of path.slice(0, -1)) o = o[k] as Record<string, unknown>;
+    o[path[path.length - 1]] = value;
+    const r = check(t);
+    expect(r.valid).toBe(r.issues.length === 0);
+    for (const issue of r.issues) expect(typeof issue.message).toBe('string');
+    expect(r.issues.map((i) => i.message).join('\n')).not.toContain('could not be checked');
+  };
   test.prop([fc.constantFrom(...paths.filter((p) => p.length > 0)), fc.oneof(fc.anything(), fc.double(), fc.constant([]), fc.constant([NaN, NaN]))])(
     "never throws when any field is replaced by garbage",
-    (path, value) => {
-      const t = cloneTrack(base) as unknown as Record<string, unknown>;
-      let o = t;
-      for (const k of path.slice(0, -1)) o = o[k] as Record<string, unknown>;
-      o[path[path.length - 1]] = value;
-      const r = check(t);
-      expect(r.valid).toBe(r.issues.length === 0);
-      for (const issue of r.issues) expect(typeof issue.message).toBe('string');
-      // the last-resort catch in validateTrack must never be what answered
-      expect(r.issues.map((i) => i.message).join('\n')).not.toContain('could not be checked');
-    },
+    (path, value) => expectAnsweredWith(path, value),
   );
 
   // the random draws above rarely hit the numbers that strain a rule's arithmetic (a margin of
   // 1e9 m once made the clearance search run for minutes): every field, each edge value
   test('every field replaced by each of 18 edge numbers: answered, issues well formed', () => {
     const values = [5e-324, 1e-320, 1e-300, 1e-12, 1e-9, 1e-6, 1e308, -1e308, 1e15, 1e9, 999999999, -999999999, -0, 2 ** 31, 2 ** 53, -1, 0.5, 3];
-    for (const path of paths.filter((p) => p.length > 0)) {
-      for (const value of values) {
-        const t = cloneTrack(base) as unknown as Record<string, unknown>;
-        let o = t;
-        for (const k of path.slice(0, -1)) o = o[k] as Record<string, unknown>;
-        o[path[path.length - 1]] = value;
-        const r = check(t);
-        expect(r.valid).toBe(r.issues.length === 0);
-        expect(r.issues.map((i) => i.message).join('\n')).not.toContain('could not be checked');
-      }
-    }
+    for (const path of paths.filter((p) => p.length > 0)) for (const value of values) expectAnsweredWith(path, value);
   });
 });
