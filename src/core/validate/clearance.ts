@@ -69,6 +69,9 @@ export function checkClearance(input: ClearanceInput): ClearanceResult {
   // vertex belongs to the next chunk)
   const chunkReach = new Float64Array(chunks);
   const segmentReach = new Float64Array(chunks);
+  const sFirst = new Float64Array(chunks);
+  const sLast = new Float64Array(chunks);
+  const sNext = new Float64Array(chunks);
   for (let c = 0; c < chunks; c++) {
     let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity, r = 0;
     const end = Math.min(n, (c + 1) * CHUNK);
@@ -87,6 +90,9 @@ export function checkClearance(input: ClearanceInput): ClearanceResult {
     box[4 * c + 3] = maxY;
     chunkReach[c] = r;
     segmentReach[c] = Math.max(r, reach[end === n ? 0 : end]);
+    sFirst[c] = s[c * CHUNK];
+    sLast[c] = s[end - 1];
+    sNext[c] = s[end === n ? 0 : end];
     index.add(minX, minY, maxX, maxY);
   }
   index.finish();
@@ -104,7 +110,7 @@ export function checkClearance(input: ClearanceInput): ClearanceResult {
   // are not listed when a smaller gap is already known; the pairs are scanned in the same order
   // as in one round (the first round takes every bucket that may hold a violation).
   const limit = Math.max(marginM, beyond);
-  const cells: ChunkCells = { index, box, chunkReach, segmentReach, reachMax, s, n, chunks, lapLengthM, exemptM };
+  const cells: ChunkCells = { index, box, chunkReach, segmentReach, reachMax, sFirst, sLast, sNext, chunks, lapLengthM, exemptM };
   let from = -Infinity;
   let to = Math.min(limit, (Math.ceil(Math.max(marginM, FIRST_ROUND_SHARE * beyond) / BOUND_STEP_M) + 1) * BOUND_STEP_M);
   for (;;) {
@@ -123,8 +129,10 @@ interface ChunkCells {
   readonly chunkReach: Float64Array;
   readonly segmentReach: Float64Array;
   readonly reachMax: number;
-  readonly s: Float64Array;
-  readonly n: number;
+  /** Lap positions of each chunk's first and last vertex and of the end vertex of its last segment. */
+  readonly sFirst: Float64Array;
+  readonly sLast: Float64Array;
+  readonly sNext: Float64Array;
   readonly chunks: number;
   readonly lapLengthM: number;
   readonly exemptM: number;
@@ -133,44 +141,68 @@ interface ChunkCells {
 // lists the chunk pairs whose bound lies in [from, to) and scans them in order of bound; returns
 // true when no later pair can matter (the branch and bound stopped, or this was the last round)
 function scanRound(scan: PairScan, cells: ChunkCells, from: number, to: number, last: boolean): boolean {
-  const { index, box, chunkReach, segmentReach, reachMax, s, n, chunks, lapLengthM, exemptM } = cells;
-  const pairA: number[] = [];
-  const pairB: number[] = [];
-  const bucketOf: number[] = [];
+  const { index, box, chunkReach, segmentReach, reachMax, sFirst, sLast, sNext, chunks, lapLengthM, exemptM } = cells;
+  const hits = new Int32Array(chunks);
+  let pairA = new Int32Array(4 * chunks);
+  let pairB = new Int32Array(4 * chunks);
+  let bucketOf = new Int32Array(4 * chunks);
+  let pairs = 0;
   // buckets of BOUND_STEP_M, wider when the range is absurdly long (a margin of a million metres
   // in an uploaded track's params): the order only steers the search, the answer is the same
   const step = Math.max(BOUND_STEP_M, to / MAX_BUCKETS);
   const buckets = Math.ceil(to / step) + 2;
   const bucketSize = new Int32Array(buckets + 1);
   for (let a = 0; a < chunks; a++) {
-    const aFrom = a * CHUNK, aTo = Math.min(n, aFrom + CHUNK);
     const q = chunkReach[a] + reachMax + to;
-    for (const b of index.search(box[4 * a] - q, box[4 * a + 1] - q, box[4 * a + 2] + q, box[4 * a + 3] + q)) {
-      if (farthestAlongLap(s, aFrom, aTo - 1, b * CHUNK, Math.min(n, (b + 1) * CHUNK), n, lapLengthM) <= exemptM) continue;
+    const count = index.searchInto(box[4 * a] - q, box[4 * a + 1] - q, box[4 * a + 2] + q, box[4 * a + 3] + q, hits);
+    const aFirst = sFirst[a], aLast = sLast[a];
+    for (let h = 0; h < count; h++) {
+      const b = hits[h];
+      // the whole chunk pair within πR along the lap (largest lap distance between a vertex of
+      // chunk a and one of chunk b's segments: the ranges are contiguous, so at their ends)
+      const bFirst = sFirst[b], bNext = sNext[b];
+      if (cyclicGap(aFirst, bFirst, lapLengthM) <= exemptM && cyclicGap(aFirst, bNext, lapLengthM) <= exemptM && cyclicGap(aLast, bFirst, lapLengthM) <= exemptM && cyclicGap(aLast, bNext, lapLengthM) <= exemptM) continue;
       const lower = boxDistance(box, a, b) - chunkReach[a] - segmentReach[b];
       if (lower >= to || lower < from) continue;
       // bucket 0 holds bounds <= 0, bucket k >= 1 bounds in ((k - 1)·step, k·step]
       const k = lower <= 0 ? 0 : Math.min(buckets - 1, Math.ceil(lower / step));
-      pairA.push(a);
-      pairB.push(b);
-      bucketOf.push(k);
+      if (pairs === pairA.length) {
+        pairA = grow(pairA);
+        pairB = grow(pairB);
+        bucketOf = grow(bucketOf);
+      }
+      pairA[pairs] = a;
+      pairB[pairs] = b;
+      bucketOf[pairs++] = k;
       bucketSize[k + 1]++;
     }
   }
+  // a stable counting sort by bucket: within one, pairs keep the order they were listed in
   for (let k = 0; k < buckets; k++) bucketSize[k + 1] += bucketSize[k];
-  const order = new Int32Array(pairA.length);
   const fill = bucketSize.slice(0, buckets);
-  for (let p = 0; p < pairA.length; p++) order[fill[bucketOf[p]]++] = p;
+  const sortedA = new Int32Array(pairs);
+  const sortedB = new Int32Array(pairs);
+  for (let p = 0; p < pairs; p++) {
+    const o = fill[bucketOf[p]]++;
+    sortedA[o] = pairA[p];
+    sortedB[o] = pairB[p];
+  }
   for (let k = 0; k < buckets; k++) {
     // every bound in bucket k exceeds (k - 1)·step
     if (k >= 1 && (k - 1) * step >= Math.max(scan.marginM, scan.minGap)) return true;
     for (let o = bucketSize[k]; o < bucketSize[k + 1]; o++) {
-      scanChunkPair(scan, pairA[order[o]], pairB[order[o]], box, segmentReach);
+      scanChunkPair(scan, sortedA[o], sortedB[o], box, segmentReach);
       // violations only (no gap measured): nothing more to find once the list is full
       if (scan.measureOnlyViolations && scan.violations.length >= scan.maxViolations) return true;
     }
   }
   return last;
+}
+
+function grow(a: Int32Array<ArrayBuffer>): Int32Array<ArrayBuffer> {
+  const b = new Int32Array(2 * a.length);
+  b.set(a);
+  return b;
 }
 
 /**
@@ -235,13 +267,6 @@ function boxDistance(box: Float64Array, a: number, b: number): number {
 
 /** Segments per indexed chunk: fewer, larger boxes, so local stretches are skipped wholesale. */
 const CHUNK = 8;
-
-// largest lap distance between a vertex of [aFrom, aTo] and a vertex of [bFrom, bTo] (cyclic; the
-// ranges are contiguous, so it is reached at their ends)
-function farthestAlongLap(s: Float64Array, aFrom: number, aTo: number, bFrom: number, bTo: number, n: number, lap: number): number {
-  const b1 = bTo === n ? 0 : bTo;
-  return Math.max(cyclicGap(s[aFrom], s[bFrom], lap), cyclicGap(s[aFrom], s[b1], lap), cyclicGap(s[aTo], s[bFrom], lap), cyclicGap(s[aTo], s[b1], lap));
-}
 
 /**
  * Arc length within which two points of a curve of radius >= R are the same part of it, for a
