@@ -3,7 +3,7 @@ import { polygon } from '@turf/helpers';
 import { kinks } from '@turf/kinks';
 import { describe, expect } from 'vitest';
 import { generateTrack } from '../../../src/core/generate.js';
-import { crossingsByCellPairs, crossingsBySegmentQueries, findCrossings, type Crossing } from '../../../src/core/geom/crossings.js';
+import { crossingsByCellPairs, crossingsByChains, crossingsBySegmentQueries, findCrossings, type Crossing } from '../../../src/core/geom/crossings.js';
 import { orient } from '../../../src/core/geom/orient.js';
 import { segmentsIntersect } from '../../../src/core/geom/segment-intersect.js';
 import { SegmentIndex } from '../../../src/core/spatial/segment-index.js';
@@ -120,10 +120,11 @@ function referencePairs(polys: readonly Poly[]): Pair[] {
   return out;
 }
 
-/** Both strategies and findCrossings give the same crossings (points included), and their pairs are the reference's. */
+/** The three strategies and findCrossings give the same crossings (points included), and their pairs are the reference's. */
 function expectStrategiesAgree(polys: readonly Poly[], maxResults = Infinity): void {
   const byCells = crossingsByCellPairs(polys, maxResults);
   expect(crossingsBySegmentQueries(polys, maxResults)).toEqual(byCells);
+  expect(crossingsByChains(polys, maxResults, Infinity)).toEqual(byCells);
   expect(findCrossings(polys, maxResults)).toEqual(byCells);
   expect(pairs(byCells)).toEqual(referencePairs(polys).slice(0, maxResults));
 }
