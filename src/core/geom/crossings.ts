@@ -178,48 +178,70 @@ function bySegmentQueries(pairs: SegmentPairs, maxResults: number): Crossing[] {
  * once more than `stepsPerSegment` · n + CHAIN_STEPS_MIN chain pairs and segment pairs have been examined.
  *
  * A chain is a run of segments of one polyline whose coordinate differences all have the same signs, not
- * both zero (a zero-length segment is a chain of its own). Its vertices are monotone in x and in y, strictly
- * in at least one, so two segments of one chain never meet except neighbours at their shared vertex, which
- * do not fold back: no pair within a chain is reported. Its box is spanned by its first and last vertex.
- * Chain pairs whose boxes meet come from a sort by min x; the segments of two chains are merged along an axis
- * in which both are monotone, each segment paired with the run of the other chain's segments that overlap it
- * on that axis, then tested on the other axis and exactly. Signs and comparisons are exact, so no pair whose
- * boxes meet is missed.
+ * both zero (a zero-length segment, and the closing segment of a closed polyline, are chains of their own).
+ * Its vertices are monotone in x and in y, strictly in at least one, so two segments of one chain never meet
+ * except neighbours at their shared vertex, which do not fold back: no pair within a chain is reported. Its
+ * box is spanned by its first and last vertex. Chain pairs whose boxes meet come from a sort by min x; each
+ * chain is cut to the segments that meet the common box, and the two are merged along an axis in which both
+ * are monotone, each segment paired with the run of the other chain's segments that overlap it on that axis,
+ * then tested on the other axis and exactly. Signs and comparisons are exact, so no pair whose boxes meet is
+ * missed.
  */
 function byChains(pairs: SegmentPairs, maxResults: number, stepsPerSegment: number): Crossing[] | undefined {
   if (maxResults === 0) return [];
-  const { n, seg, firstId } = pairs;
-  // chain starts by id, then n; per chain its signs of dx and dy
-  const start: number[] = [];
+  const { n, firstId, polylines } = pairs;
+  // per chain: its vertices (coordinates, first vertex), the id of its first segment, its length, its signs
+  const vertices: Float64Array[] = [];
+  const first: number[] = [];
+  const id0: number[] = [];
+  const len: number[] = [];
   const sx: number[] = [];
   const sy: number[] = [];
-  for (let k = 0; k + 1 < firstId.length; k++) {
+  for (let k = 0; k < polylines.length; k++) {
+    const c = polylines[k].coords;
+    const m = segmentCount(polylines[k]);
+    // the closing segment ends at vertex 0: a chain of its own, on a copy of its two vertices
+    const open = polylines[k].closed && m > 0 ? m - 1 : m;
     let dirX = 0, dirY = 0;
-    for (let id = firstId[k]; id < firstId[k + 1]; id++) {
-      const ax = seg[4 * id], ay = seg[4 * id + 1], bx = seg[4 * id + 2], by = seg[4 * id + 3];
+    for (let i = 0; i < open; i++) {
+      const ax = c[2 * i], ay = c[2 * i + 1], bx = c[2 * i + 2], by = c[2 * i + 3];
       const x = bx > ax ? 1 : bx < ax ? -1 : 0;
       const y = by > ay ? 1 : by < ay ? -1 : 0;
-      if (id === firstId[k] || x !== dirX || y !== dirY || (x === 0 && y === 0)) {
-        start.push(id);
-        sx.push(x);
-        sy.push(y);
-        dirX = x;
-        dirY = y;
+      if (i > 0 && x === dirX && y === dirY && (x !== 0 || y !== 0)) {
+        len[len.length - 1]++;
+        continue;
       }
+      vertices.push(c);
+      first.push(i);
+      id0.push(firstId[k] + i);
+      len.push(1);
+      sx.push(x);
+      sy.push(y);
+      dirX = x;
+      dirY = y;
+    }
+    if (open < m) {
+      const ax = c[2 * open], ay = c[2 * open + 1], bx = c[0], by = c[1];
+      vertices.push(Float64Array.of(ax, ay, bx, by));
+      first.push(0);
+      id0.push(firstId[k] + open);
+      len.push(1);
+      sx.push(bx > ax ? 1 : bx < ax ? -1 : 0);
+      sy.push(by > ay ? 1 : by < ay ? -1 : 0);
     }
   }
-  const chains = sx.length;
-  start.push(n);
+  const chains = len.length;
   const box = new Float64Array(4 * chains);
   for (let c = 0; c < chains; c++) {
-    const f = 4 * start[c], l = 4 * (start[c + 1] - 1);
-    box[4 * c] = Math.min(seg[f], seg[l + 2]);
-    box[4 * c + 1] = Math.min(seg[f + 1], seg[l + 3]);
-    box[4 * c + 2] = Math.max(seg[f], seg[l + 2]);
-    box[4 * c + 3] = Math.max(seg[f + 1], seg[l + 3]);
+    const v = vertices[c], f = 2 * first[c], l = 2 * (first[c] + len[c]);
+    box[4 * c] = Math.min(v[f], v[l]);
+    box[4 * c + 1] = Math.min(v[f + 1], v[l + 1]);
+    box[4 * c + 2] = Math.max(v[f], v[l]);
+    box[4 * c + 3] = Math.max(v[f + 1], v[l + 1]);
   }
   const order = Array.from({ length: chains }, (_, c) => c).sort((a, b) => box[4 * a] - box[4 * b]);
   const keys: number[] = [];
+  const A = new ChainWalk(), B = new ChainWalk();
   let budget = stepsPerSegment * n + CHAIN_STEPS_MIN;
   for (let u = 0; u < chains; u++) {
     const a = order[u];
@@ -230,10 +252,13 @@ function byChains(pairs: SegmentPairs, maxResults: number, stepsPerSegment: numb
       if (box[4 * b + 1] > box[4 * a + 3] || box[4 * b + 3] < box[4 * a + 1]) continue;
       // merge along x when both are monotone in it and not both constant, else along y; a chain constant in
       // x with one constant in y merges along x too (each of its segments overlaps one or two of the other's)
-      const alongX = (sx[a] !== 0 && sx[b] !== 0) || !(sy[a] !== 0 && sy[b] !== 0);
-      budget = alongX
-        ? mergeChains(pairs, start[a], start[a + 1], sx[a], start[b], start[b + 1], sx[b], 0, box, a, b, keys, budget)
-        : mergeChains(pairs, start[a], start[a + 1], sy[a], start[b], start[b + 1], sy[b], 1, box, a, b, keys, budget);
+      const o = (sx[a] !== 0 && sx[b] !== 0) || !(sy[a] !== 0 && sy[b] !== 0) ? 0 : 1;
+      const lo = Math.max(box[4 * a + o], box[4 * b + o]), hi = Math.min(box[4 * a + 2 + o], box[4 * b + 2 + o]);
+      const w = 1 - o;
+      const wLo = Math.max(box[4 * a + w], box[4 * b + w]), wHi = Math.min(box[4 * a + 2 + w], box[4 * b + 2 + w]);
+      A.set(vertices[a], first[a], id0[a], len[a], o === 0 ? sx[a] : sy[a], o === 0 ? sy[a] : sx[a], o, lo, hi, wLo, wHi);
+      B.set(vertices[b], first[b], id0[b], len[b], o === 0 ? sx[b] : sy[b], o === 0 ? sy[b] : sx[b], o, lo, hi, wLo, wHi);
+      budget = mergeWalks(pairs, A, B, o, keys, budget);
       if (budget < 0) return undefined;
     }
   }
@@ -241,42 +266,73 @@ function byChains(pairs: SegmentPairs, maxResults: number, stepsPerSegment: numb
 }
 
 /**
- * Test the segment pairs of chains a (ids fa … ea − 1, sign sa on axis o) and b whose boxes meet, pushing the
- * keys of those that {@link SegmentPairs.meet}; returns the budget left (negative when it ran out).
+ * One chain of {@link byChains} walked so that its coordinate on the merge axis does not decrease: walk step
+ * t goes from vertex base + dir·t to base + dir·(t + 1) and is segment ids + dir·t. Only the steps
+ * [start, end), those whose boxes meet the common box of the two chains merged, are merged.
  */
-function mergeChains(
-  pairs: SegmentPairs, fa: number, ea: number, sa: number, fb: number, eb: number, sb: number,
-  o: number, box: Float64Array, a: number, b: number, keys: number[], budget: number,
-): number {
-  const { seg, n } = pairs;
+class ChainWalk {
+  v: Float64Array = new Float64Array(0);
+  base = 0;
+  dir = 1;
+  ids = 0;
+  start = 0;
+  end = 0;
+
+  /**
+   * Walk the chain of `len` segments from vertex `first` of `v`, the first being segment `ids`, whose
+   * coordinates change with signs so on axis o and sw on the other, cut to the box [lo, hi] x [wLo, wHi].
+   */
+  set(v: Float64Array, first: number, ids: number, len: number, so: number, sw: number, o: number, lo: number, hi: number, wLo: number, wHi: number): void {
+    this.v = v;
+    this.dir = so < 0 ? -1 : 1;
+    this.base = so < 0 ? first + len : first;
+    this.ids = so < 0 ? ids + len - 1 : ids;
+    const { base, dir } = this;
+    const w = 1 - o;
+    // the walk's first and last vertex span the chain's box: no search where the common box holds that end
+    const v0 = 2 * base, v1 = 2 * (base + dir * len);
+    // on axis o: from the first step ending at or after lo to the last starting at or before hi
+    let start = lo > v[v0 + o] ? firstStep(v, base, dir, len, o, 1, lo, 1) : 0;
+    let end = hi < v[v1 + o] ? firstStep(v, base, dir, len, o, 0, hi, 1) : len;
+    // on the other axis, increasing along the walk: the same; decreasing: from the first step ending at or
+    // below wHi to the last starting at or above wLo
+    if ((so < 0 ? -sw : sw) >= 0) {
+      if (wLo > v[v0 + w]) start = Math.max(start, firstStep(v, base, dir, len, w, 1, wLo, 1));
+      if (wHi < v[v1 + w]) end = Math.min(end, firstStep(v, base, dir, len, w, 0, wHi, 1));
+    } else {
+      if (wHi < v[v0 + w]) start = Math.max(start, firstStep(v, base, dir, len, w, 1, -wHi, -1));
+      if (wLo > v[v1 + w]) end = Math.min(end, firstStep(v, base, dir, len, w, 0, -wLo, -1));
+    }
+    this.start = start;
+    this.end = end;
+  }
+}
+
+/**
+ * Test each pair of segments, one of each walk, whose boxes meet, pushing the keys of those that
+ * {@link SegmentPairs.meet}: for each step of A in order, the run of B's steps that overlap it on axis o (its
+ * start only moves forward), tested on the other axis, then exactly.
+ * @returns the budget left, less one per pair and step examined (negative: stop).
+ */
+function mergeWalks(pairs: SegmentPairs, A: ChainWalk, B: ChainWalk, o: number, keys: number[], budget: number): number {
+  const { v: av, base: aBase, dir: aDir, ids: aIds, end: aEnd } = A;
+  const { v: bv, base: bBase, dir: bDir, ids: bIds, end: bEnd } = B;
   const w = 1 - o;
-  // walk each chain so that its coordinate on axis o does not decrease: lo and hi are then the start and end
-  // coordinates (offsets into seg) of each segment's interval, both non-decreasing along the walk
-  const la = ea - fa, lb = eb - fb;
-  const baseA = sa < 0 ? ea - 1 : fa, stepA = sa < 0 ? -1 : 1;
-  const baseB = sb < 0 ? eb - 1 : fb, stepB = sb < 0 ? -1 : 1;
-  const loA = sa < 0 ? o + 2 : o, hiA = sa < 0 ? o : o + 2;
-  const loB = sb < 0 ? o + 2 : o, hiB = sb < 0 ? o : o + 2;
-  // the common range of the two chains on axis o
-  const lo = Math.max(box[4 * a + o], box[4 * b + o]);
-  const hi = Math.min(box[4 * a + 2 + o], box[4 * b + 2 + o]);
-  let p = firstReaching(seg, baseA, stepA, hiA, la, lo);
-  let q0 = firstReaching(seg, baseB, stepB, hiB, lb, lo);
-  for (; p < la; p++) {
-    const i = baseA + stepA * p;
-    const iLo = seg[4 * i + loA];
-    if (iLo > hi) break;
-    const iHi = seg[4 * i + hiA];
-    const i0 = seg[4 * i + w], i1 = seg[4 * i + 2 + w];
-    const iMin = Math.min(i0, i1), iMax = Math.max(i0, i1);
-    while (q0 < lb && seg[4 * (baseB + stepB * q0) + hiB] < iLo) q0++;
+  const n = pairs.n;
+  let q0 = B.start;
+  for (let t = A.start; t < aEnd; t++) {
+    const p = 2 * (aBase + aDir * t), p1 = p + 2 * aDir;
+    const iLo = av[p + o], iHi = av[p1 + o];
+    const iMin = Math.min(av[p + w], av[p1 + w]), iMax = Math.max(av[p + w], av[p1 + w]);
+    while (q0 < bEnd && bv[2 * (bBase + bDir * (q0 + 1)) + o] < iLo) q0++;
     budget--;
-    for (let q = q0; q < lb; q++) {
-      const j = baseB + stepB * q;
-      if (seg[4 * j + loB] > iHi) break;
+    for (let q = q0; q < bEnd; q++) {
+      const r = 2 * (bBase + bDir * q);
+      if (bv[r + o] > iHi) break;
       budget--;
-      const j0 = seg[4 * j + w], j1 = seg[4 * j + 2 + w];
+      const j0 = bv[r + w], j1 = bv[r + 2 * bDir + w];
       if ((j0 < iMin && j1 < iMin) || (j0 > iMax && j1 > iMax)) continue;
+      const i = aIds + aDir * t, j = bIds + bDir * q;
       if (i < j ? pairs.meet(i, j) : pairs.meet(j, i)) keys.push(i < j ? i * n + j : j * n + i);
     }
     if (budget < 0) return budget;
@@ -284,13 +340,25 @@ function mergeChains(
   return budget;
 }
 
-/** The first position 0 … count − 1 along a chain walk whose interval end (offset hi) reaches x; count if none. */
-function firstReaching(seg: Float64Array, base: number, step: number, hi: number, count: number, x: number): number {
-  let lo = 0, up = count;
-  while (lo < up) {
-    const mid = (lo + up) >> 1;
-    if (seg[4 * (base + step * mid) + hi] < x) lo = mid + 1;
-    else up = mid;
+/**
+ * The first walk step t in [0, len) whose vertex t + ends (0: its start, 1: its end) has sign · coordinate on
+ * axis c at least x (strictly above x when ends is 0, for the first step past the range); len if none. The
+ * coordinate times sign must not decrease along the walk.
+ */
+function firstStep(v: Float64Array, base: number, dir: number, len: number, c: number, ends: number, x: number, sign: number): number {
+  let lo = 0, up = len;
+  if (ends === 1) {
+    while (lo < up) {
+      const mid = (lo + up) >> 1;
+      if (sign * v[2 * (base + dir * (mid + 1)) + c] < x) lo = mid + 1;
+      else up = mid;
+    }
+  } else {
+    while (lo < up) {
+      const mid = (lo + up) >> 1;
+      if (sign * v[2 * (base + dir * mid) + c] <= x) lo = mid + 1;
+      else up = mid;
+    }
   }
   return lo;
 }
@@ -301,24 +369,22 @@ const J_THEN_I = 2;
 
 /**
  * The segments of some polylines by id (polyline 0's segments first) with the exact pair test of
- * {@link findCrossings}. Construction copies the endpoints, O(n); the grid index and the zero-length runs
- * are built on first use.
+ * {@link findCrossings}. Construction checks the coordinates, O(n); the endpoint copy, the grid index and
+ * the zero-length runs are built on first use.
  */
 class SegmentPairs {
   /** Number of segments. */
   readonly n: number;
-  /** Endpoints `[ax, ay, bx, by]` of every segment, by id. */
-  readonly seg: Float64Array;
-  /** Polyline of each segment, and its index within the polyline, by id. */
-  readonly polylineOf: Int32Array;
-  readonly segmentOf: Int32Array;
   /** Id of the first segment of each polyline, then the total. */
   readonly firstId: Int32Array;
-  private readonly polylines: readonly PolylineInput[];
+  readonly polylines: readonly PolylineInput[];
   private readonly closed: boolean[];
+  private endpoints: Float64Array | undefined;
   private grid: SegmentIndex | undefined;
   // steps forward to the next segment of non-zero length (forwardGaps), by id
   private gaps: Int32Array | undefined;
+  // endpoints of the two segments meet and crossing look at
+  private readonly scratch = new Float64Array(8);
 
   /** @throws {RangeError} when maxResults is negative or NaN, or a coordinate is not finite. */
   constructor(polylines: readonly PolylineInput[], maxResults: number) {
@@ -327,11 +393,13 @@ class SegmentPairs {
     this.firstId = new Int32Array(polylines.length + 1);
     for (let k = 0; k < polylines.length; k++) this.firstId[k + 1] = this.firstId[k] + segmentCount(polylines[k]);
     this.n = this.firstId[polylines.length];
-    this.seg = new Float64Array(4 * this.n);
-    this.polylineOf = new Int32Array(this.n);
-    this.segmentOf = new Int32Array(this.n);
-    copySegments(polylines, this.seg, this.polylineOf, this.segmentOf);
+    checkCoordinates(polylines);
     this.closed = polylines.map((p) => p.closed);
+  }
+
+  /** Endpoints `[ax, ay, bx, by]` of every segment, by id; copied on first use. */
+  get seg(): Float64Array {
+    return (this.endpoints ??= segmentCoords(this.polylines, this.n));
   }
 
   /** The grid index over the segments (same ids), built on first use. */
@@ -344,9 +412,11 @@ class SegmentPairs {
    * vertices) only when the path folds back, all others when the closed segments share a point. Exact; O(1).
    */
   meet(i: number, j: number): boolean {
-    const { seg } = this;
-    const ax = seg[4 * i], ay = seg[4 * i + 1], bx = seg[4 * i + 2], by = seg[4 * i + 3];
-    const cx = seg[4 * j], cy = seg[4 * j + 1], dx = seg[4 * j + 2], dy = seg[4 * j + 3];
+    const e = this.scratch;
+    this.load(i, 0);
+    this.load(j, 4);
+    const ax = e[0], ay = e[1], bx = e[2], by = e[3];
+    const cx = e[4], cy = e[5], dx = e[6], dy = e[7];
     const order = this.consecutive(i, j);
     if (order !== NOT_CONSECUTIVE) {
       return ((order & I_THEN_J) !== 0 && foldsBack(ax, ay, bx, by, dx, dy))
@@ -360,46 +430,73 @@ class SegmentPairs {
    * consecutive (the end of i when j follows i), else at an approximate common point.
    */
   crossing(i: number, j: number): Crossing {
-    const { seg } = this;
+    const e = this.scratch;
+    this.load(i, 0);
+    this.load(j, 4);
     const order = this.consecutive(i, j);
     let x: number, y: number;
     if (order !== NOT_CONSECUTIVE) {
-      const o = (order & I_THEN_J) !== 0 ? 4 * i + 2 : 4 * j + 2;
-      x = seg[o];
-      y = seg[o + 1];
+      const o = (order & I_THEN_J) !== 0 ? 2 : 6;
+      x = e[o];
+      y = e[o + 1];
     } else {
-      [x, y] = contactPoint(
-        seg[4 * i], seg[4 * i + 1], seg[4 * i + 2], seg[4 * i + 3],
-        seg[4 * j], seg[4 * j + 1], seg[4 * j + 2], seg[4 * j + 3],
-      );
+      [x, y] = contactPoint(e[0], e[1], e[2], e[3], e[4], e[5], e[6], e[7]);
     }
+    const p = this.polylineOf(i), q = this.polylineOf(j);
     return {
-      a: { polyline: this.polylineOf[i], segment: this.segmentOf[i] },
-      b: { polyline: this.polylineOf[j], segment: this.segmentOf[j] },
+      a: { polyline: p, segment: i - this.firstId[p] },
+      b: { polyline: q, segment: j - this.firstId[q] },
       x,
       y,
     };
   }
 
+  /** Polyline of segment `id`: the last k with firstId[k] <= id (polylines without segments are skipped). */
+  private polylineOf(id: number): number {
+    const f = this.firstId;
+    let lo = 0, hi = f.length - 2;
+    while (lo < hi) {
+      const mid = (lo + hi + 1) >> 1;
+      if (f[mid] <= id) lo = mid;
+      else hi = mid - 1;
+    }
+    return lo;
+  }
+
+  // endpoints [ax, ay, bx, by] of segment id into scratch[at …], read from its polyline
+  private load(id: number, at: number): void {
+    const p = this.polylineOf(id);
+    const s = id - this.firstId[p];
+    const c = this.polylines[p].coords;
+    const t = s + 1 === c.length >> 1 ? 0 : s + 1;
+    const e = this.scratch;
+    e[at] = c[2 * s];
+    e[at + 1] = c[2 * s + 1];
+    e[at + 2] = c[2 * t];
+    e[at + 3] = c[2 * t + 1];
+  }
+
   // for segments i < j: I_THEN_J when j follows i along one polyline with only zero-length segments between,
   // J_THEN_I when i follows j so (across the closing segment of a closed polyline); either, both or neither
   private consecutive(i: number, j: number): number {
-    const p = this.polylineOf[i];
-    if (p !== this.polylineOf[j]) return NOT_CONSECUTIVE;
-    const steps = this.segmentOf[j] - this.segmentOf[i];
+    const p = this.polylineOf(i);
+    if (p !== this.polylineOf(j)) return NOT_CONSECUTIVE;
+    const steps = j - i;
     const m = this.firstId[p + 1] - this.firstId[p];
-    return (this.within(i, steps) ? I_THEN_J : 0) | (this.closed[p] && this.within(j, m - steps) ? J_THEN_I : 0);
+    return (this.within(p, i, steps) ? I_THEN_J : 0) | (this.closed[p] && this.within(p, j, m - steps) ? J_THEN_I : 0);
   }
 
-  // whether the segments strictly between segment `id` and the one `steps` ahead of it along the polyline
-  // (cyclically) all have zero length; one step, or a next segment of non-zero length, needs no run lengths
-  private within(id: number, steps: number): boolean {
+  // whether the segments strictly between segment `id` of polyline p and the one `steps` ahead of it along
+  // the polyline (cyclically) all have zero length; one step, or a next segment of non-zero length, needs no
+  // run lengths
+  private within(p: number, id: number, steps: number): boolean {
     if (steps === 1) return true;
-    const p = this.polylineOf[id];
-    const next = this.segmentOf[id] + 1 < this.firstId[p + 1] - this.firstId[p] ? id + 1 : this.firstId[p];
-    const { seg } = this;
-    if (seg[4 * next] !== seg[4 * next + 2] || seg[4 * next + 1] !== seg[4 * next + 3]) return false;
-    return steps <= (this.gaps ??= forwardGaps(this.polylines, seg, this.n))[id];
+    const f = this.firstId[p];
+    const s = id + 1 < this.firstId[p + 1] ? id + 1 - f : 0;
+    const c = this.polylines[p].coords;
+    const t = s + 1 === c.length >> 1 ? 0 : s + 1;
+    if (c[2 * s] !== c[2 * t] || c[2 * s + 1] !== c[2 * t + 1]) return false;
+    return steps <= (this.gaps ??= forwardGaps(this.polylines, this.seg, this.n))[id];
   }
 }
 
@@ -441,15 +538,13 @@ function contactPoint(
 }
 
 /**
- * Copy the endpoints `[ax, ay, bx, by]` of every segment into `seg`, with its polyline and index within it,
- * in index id order; checks the coordinates as {@link SegmentIndex} does, with the same errors.
+ * Check the coordinates of every segment, in id order, as {@link SegmentIndex} does, with the same errors.
  * @throws {RangeError} on a non-finite coordinate, or when the coordinate span overflows a double.
  */
-function copySegments(polylines: readonly PolylineInput[], seg: Float64Array, polylineOf: Int32Array, segmentOf: Int32Array): void {
+function checkCoordinates(polylines: readonly PolylineInput[]): void {
   let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
   let id = 0;
-  for (let k = 0; k < polylines.length; k++) {
-    const p = polylines[k];
+  for (const p of polylines) {
     const c = p.coords;
     const vertices = c.length >> 1;
     const m = segmentCount(p);
@@ -459,20 +554,18 @@ function copySegments(polylines: readonly PolylineInput[], seg: Float64Array, po
       if (!Number.isFinite(ax + ay + bx + by)) {
         throw new RangeError(`Segment ${id} has a non-finite coordinate: (${ax}, ${ay})-(${bx}, ${by}).`);
       }
-      seg[4 * id] = ax;
-      seg[4 * id + 1] = ay;
-      seg[4 * id + 2] = bx;
-      seg[4 * id + 3] = by;
-      polylineOf[id] = k;
-      segmentOf[id] = i;
+      // each vertex starts a segment (an open polyline's last one ends one, and is checked below)
       if (ax < minX) minX = ax;
       if (ax > maxX) maxX = ax;
-      if (bx < minX) minX = bx;
-      if (bx > maxX) maxX = bx;
       if (ay < minY) minY = ay;
       if (ay > maxY) maxY = ay;
-      if (by < minY) minY = by;
-      if (by > maxY) maxY = by;
+    }
+    if (m > 0 && !p.closed) {
+      const x = c[2 * m], y = c[2 * m + 1];
+      if (x < minX) minX = x;
+      if (x > maxX) maxX = x;
+      if (y < minY) minY = y;
+      if (y > maxY) maxY = y;
     }
   }
   const w = maxX - minX;
@@ -480,6 +573,25 @@ function copySegments(polylines: readonly PolylineInput[], seg: Float64Array, po
   if (id > 0 && (!Number.isFinite(w) || !Number.isFinite(h))) {
     throw new RangeError(`Coordinate span ${w} x ${h} overflows - translate or scale the input.`);
   }
+}
+
+/** Endpoints `[ax, ay, bx, by]` of every segment, in index id order. */
+function segmentCoords(polylines: readonly PolylineInput[], n: number): Float64Array {
+  const seg = new Float64Array(4 * n);
+  let id = 0;
+  for (const p of polylines) {
+    const c = p.coords;
+    const vertices = c.length >> 1;
+    const m = segmentCount(p);
+    for (let i = 0; i < m; i++, id++) {
+      const j = i + 1 === vertices ? 0 : i + 1;
+      seg[4 * id] = c[2 * i];
+      seg[4 * id + 1] = c[2 * i + 1];
+      seg[4 * id + 2] = c[2 * j];
+      seg[4 * id + 3] = c[2 * j + 1];
+    }
+  }
+  return seg;
 }
 
 /**
