@@ -263,6 +263,8 @@ describe('findCrossings', () => {
     expect(SegmentIndex.fromPolylines(fan).maxCellItems).toBeGreaterThan(32);
     for (const k of [Infinity, 16, 1]) expectStrategiesAgree(fan, k);
     expect(findCrossings(fan, Infinity).length).toBe((60 * 59) / 2);
+    // 60 one-segment chains whose boxes all meet: 1770 chain pairs, past the merge's budget without the per-segment part
+    expect(crossingsByChains(fan, Infinity, 0)).toBeUndefined();
   });
 
   // generated tracks (about 4500 segments each) are the hot case: no crossings as generated; moving a few
