@@ -14,6 +14,15 @@ import { pointAt, tangentAt } from './measure.js';
  */
 const GATE_FACE_WINDOW = 2;
 
+/** The endpoint distances of a gate, in the order checked: what is off, and from what. */
+const ENDPOINT_CHECKS = [
+  ['left end is', 'from the left wall face'],
+  ['right end is', 'from the right wall face'],
+  ['gate passes', 'from the centerline point at its s'],
+] as const;
+
+type GateAt = { readonly s: number; readonly index: number };
+
 /**
  * Rules 'gate_endpoint', 'gate_forward' and 'gate_crossing' (shared/DESIGN.md guarantee 5).
  *
@@ -31,22 +40,20 @@ export function checkGateGeometry(g: TrackGeometry, gates: readonly Gate[], sink
     const gate = gates[k];
     const lx = gate.left[0], ly = gate.left[1];
     const rx = gate.right[0], ry = gate.right[1];
-    const at = { s: num(gate.s), index: k };
+    // the issues of one gate share this; made only when one is reported (num formats the number)
+    let at: GateAt | undefined;
     const i = pointAt(g, gate.s, p);
     if (!sink.full('gate_endpoint')) {
       const dl = faceDistance(g.left, g.n, i, lx, ly);
       const dr = faceDistance(g.right, g.n, i, rx, ry);
       const dc = pointSegmentDistance(p[0], p[1], lx, ly, rx, ry);
-      const checks = [
-        [dl, 'left end is', 'from the left wall face'],
-        [dr, 'right end is', 'from the right wall face'],
-        [dc, 'gate passes', 'from the centerline point at its s'],
-      ] as const;
-      for (const [d, what, from] of checks) {
+      for (let c = 0; c < ENDPOINT_CHECKS.length; c++) {
+        const d = c === 0 ? dl : c === 1 ? dr : dc;
         if (d <= GATE_ENDPOINT_TOL_M) continue;
+        const [what, from] = ENDPOINT_CHECKS[c];
         sink.add({
           code: 'gate_endpoint',
-          at,
+          at: (at ??= { s: num(gate.s), index: k }),
           limit: GATE_ENDPOINT_TOL_M,
           actual: num(d, 6),
           message: `gate ${k}: ${what} ${num(d * 1000, 2)} mm ${from} (tolerance ${GATE_ENDPOINT_TOL_M * 1000} mm) at s=${num(gate.s)} m`,
@@ -64,7 +71,7 @@ export function checkGateGeometry(g: TrackGeometry, gates: readonly Gate[], sink
       else if (!(Math.abs(fx * wx + fy * wy) <= GATE_FORWARD_PERP_TOL * width)) {
         problem = `forward is not perpendicular to the gate (cosine ${num((fx * wx + fy * wy) / width, 6)}, tolerance ${GATE_FORWARD_PERP_TOL})`;
       } else if (!(fx * tangent[0] + fy * tangent[1] > 0)) problem = 'forward points against the direction of travel';
-      if (problem) sink.add({ code: 'gate_forward', at, message: `gate ${k}: ${problem} at s=${num(gate.s)} m` });
+      if (problem) sink.add({ code: 'gate_forward', at: (at ??= { s: num(gate.s), index: k }), message: `gate ${k}: ${problem} at s=${num(gate.s)} m` });
     }
   }
   checkGateCrossings(gates, sink);
