@@ -1,6 +1,7 @@
 // Broad phase + exact narrow phase for the any-segment-intersection problem; the O(n log n) sweep bound is
 // from Shamos & Hoey, "Geometric intersection problems", FOCS 1976, and Bentley & Ottmann, IEEE Trans.
-// Computers C-28 (1979) 643-647; here a uniform grid stands in for the sweep.
+// Computers C-28 (1979) 643-647; here monotone chains merged pairwise (a uniform grid when they are too
+// many or too tangled) stand in for the sweep.
 import { SegmentIndex, segmentCount, type PolylineInput } from '../spatial/segment-index.js';
 import { orient } from './orient.js';
 import { pointSegmentDistance } from './polyline.js';
@@ -56,11 +57,14 @@ export interface Crossing {
  * also lies on another part of the path is reported with every segment that touches it there.
  *
  * Pairs come ordered by (polyline, segment) of `a`, then of `b`, with `a` before `b`; at most `maxResults`
- * of them, the first in that order. Candidates are the pairs whose bounding boxes meet, listed once each from
- * the grid cells ({@link crossingsByCellPairs}); when the cells are crowded (many pairs per segment, or a
- * cell of many entries) one box query per segment is used instead ({@link crossingsBySegmentQueries}), which
- * can stop after `maxResults` hits. Both give the same result. Cost O(n + k) expected for n segments of
- * similar length and k candidate pairs.
+ * of them, the first in that order. Candidates are the pairs whose bounding boxes meet, across monotone chains
+ * (runs of segments that cannot meet one another; {@link crossingsByChains}), found by merging each pair of
+ * chains whose boxes meet. When that takes more than a few steps per segment (short or tangled chains) they
+ * are listed once each from grid cells instead ({@link crossingsByCellPairs}), and when the cells are
+ * crowded too (many pairs per segment, or a cell of many entries) one box query per segment is used
+ * ({@link crossingsBySegmentQueries}), which can stop after `maxResults` hits. All give the same result.
+ * Cost O(n + c log c + k) for n segments in c chains and k candidate pairs; a smooth closed curve has a few
+ * chains per turn.
  *
  * @param polylines flat coordinates `[x0, y0, x1, y1, …]` in metres; `closed` adds the segment last → first.
  * @param maxResults stop after this many pairs (≥ 0, may be `Infinity`).

@@ -12,7 +12,7 @@ const NAMES = ['centerline', 'left wall', 'right wall'];
  * Rules 'centerline_crossing', 'wall_crossing', 'walls_touch' and 'wall_touches_centerline':
  * the centerline and both wall faces are simple closed polylines that never touch one another.
  * Decided exactly (orientation predicates); touching counts, except the shared vertex of
- * adjacent segments of one polyline. Cost O(n) expected (grid broad phase).
+ * adjacent segments of one polyline. Cost O(n) expected (monotone chains, or a grid, as broad phase).
  * @returns whether any crossing was found.
  */
 export function checkCrossings(g: TrackGeometry, sink: IssueSink): boolean {

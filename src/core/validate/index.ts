@@ -1,6 +1,6 @@
 // The validity checker: shared/DESIGN.md "Guarantees", verified on the shipped numbers against
 // the track's own params. Exact orientation predicates (Shewchuk 1997, via robust-predicates)
-// decide every crossing and point location; a uniform grid is the broad phase.
+// decide every crossing and point location; monotone chains and uniform grids are the broad phases.
 import type { Track, ValidationResult } from '../track.js';
 import { checkCorners } from './corners.js';
 import { checkCrossings } from './crossings.js';
