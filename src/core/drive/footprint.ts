@@ -22,6 +22,14 @@ export interface FootprintSpec {
   readonly wheelbaseM: number;
 }
 
+/** Where the car is: rear axle's centre, metres, and unit heading vector. */
+export interface Pose {
+  readonly x: number;
+  readonly y: number;
+  readonly hx: number;
+  readonly hy: number;
+}
+
 /** Closest approach of the footprint to a wall at one pose (reused between calls). */
 export interface FootprintClearance {
   /** Smallest distance to a wall face, metres; negative when the footprint crosses it. */
@@ -46,10 +54,7 @@ export interface VertexReach {
  *
  * @param strip the road
  * @param spec footprint and wheelbase
- * @param x rear axle's centre, metres
- * @param y rear axle's centre, metres
- * @param ux unit heading vector
- * @param uy unit heading vector
+ * @param pose the rear axle's centre (x, y), metres, and the unit heading vector (hx, hy)
  * @param hint a quad near the car (the last pose's `quad`)
  * @param reach which wall vertices to test against the rectangle, and when: `window` vertices
  *   either side of the centre's quad (enough to span half the car's diagonal along the tightest
@@ -59,7 +64,8 @@ export interface VertexReach {
  *   corners' margin (the exact one then lies in [marginM - bulgeM, marginM], above floorM)
  * @returns `out`
  */
-export function footprintClearance(strip: RoadStrip, spec: FootprintSpec, x: number, y: number, ux: number, uy: number, hint: number, reach: VertexReach, out: FootprintClearance): FootprintClearance {
+export function footprintClearance(strip: RoadStrip, spec: FootprintSpec, pose: Pose, hint: number, reach: VertexReach, out: FootprintClearance): FootprintClearance {
+  const x = pose.x, y = pose.y, ux = pose.hx, uy = pose.hy;
   const halfL = spec.lengthM / 2, halfW = spec.widthM / 2;
   const cx = x + (spec.wheelbaseM / 2) * ux, cy = y + (spec.wheelbaseM / 2) * uy;
   const centre = locateQuad(strip, cx, cy, hint);

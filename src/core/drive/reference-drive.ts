@@ -121,7 +121,7 @@ export function referenceDrive(strip: RoadStrip, speedMps: Float64Array, heading
     // 1-Lipschitz in the footprint's displacement), so the smallest margin stays exact
     if (exhaustive || lastMargin - moved <= minMargin) {
       vertices.floorM = exhaustive ? Infinity : minMargin;
-      footprintClearance(strip, vehicle, state.x, state.y, state.hx, state.hy, quad, vertices, clearance);
+      footprintClearance(strip, vehicle, state, quad, vertices, clearance);
       lastMargin = clearance.exact ? clearance.marginM : clearance.marginM - vertices.bulgeM;
       moved = 0;
       if (clearance.marginM < minMargin) {

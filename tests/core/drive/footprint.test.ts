@@ -18,7 +18,7 @@ describe('footprintClearance', () => {
     const strip = buildRoadStrip(track);
     // rear axle at point 20 of the bottom straight, heading +x; the centre 1.25 m further on
     const [x, y] = track.centerline.points[20];
-    const r = footprintClearance(strip, car, x, y, 1, 0, 20, exact, out());
+    const r = footprintClearance(strip, car, { x, y, hx: 1, hy: 0 }, 20, exact, out());
     const c = track.centerline;
     const near = [20, 21, 22, 23, 24].map((i) => Math.min(c.halfWidthLeftM[i], c.halfWidthRightM[i]) - 1);
     expect(r.marginM).toBeGreaterThan(Math.min(...near) - 0.01);
@@ -30,7 +30,7 @@ describe('footprintClearance', () => {
     const track = stadiumTrack();
     const strip = buildRoadStrip(track);
     const [x, y] = track.centerline.points[5];
-    expect(footprintClearance(strip, { ...car, widthM: 12 }, x, y, 1, 0, 5, exact, out()).marginM).toBeLessThan(0);
+    expect(footprintClearance(strip, { ...car, widthM: 12 }, { x, y, hx: 1, hy: 0 }, 5, exact, out()).marginM).toBeLessThan(0);
   });
 
   it('on the inside of a tight corner the wall bulging between two corners of the car is caught', () => {
@@ -54,8 +54,8 @@ describe('footprintClearance', () => {
     const brute = rectangleToWalls(rectangle(cx, cy, ux, uy, long.lengthM, long.widthM), wallSegments(track).walls);
     expect(brute).toBe(0);
     // the four corners alone (no wall vertex tested) see the road: the crossing is between them
-    expect(footprintClearance(strip, long, rx, ry, ux, uy, hint, { window: -1, bulgeM: 0, floorM: Infinity }, out()).marginM).toBeGreaterThan(1);
-    expect(footprintClearance(strip, long, rx, ry, ux, uy, hint, { window: 20, bulgeM: 0, floorM: Infinity }, out()).marginM).toBeLessThan(0);
+    expect(footprintClearance(strip, long, { x: rx, y: ry, hx: ux, hy: uy }, hint, { window: -1, bulgeM: 0, floorM: Infinity }, out()).marginM).toBeGreaterThan(1);
+    expect(footprintClearance(strip, long, { x: rx, y: ry, hx: ux, hy: uy }, hint, { window: 20, bulgeM: 0, floorM: Infinity }, out()).marginM).toBeLessThan(0);
   });
 
   test.prop([fc.integer({ min: 0, max: 100_000 }), fc.double({ min: -3, max: 3, noNaN: true }), fc.double({ min: -0.3, max: 0.3, noNaN: true })])(
@@ -68,7 +68,7 @@ describe('footprintClearance', () => {
       const h = (track.centerline.headingDeg[i] * Math.PI) / 180 + yaw;
       const ux = Math.cos(h), uy = Math.sin(h);
       const x = x0 - uy * lateral, y = y0 + ux * lateral;
-      const r = footprintClearance(strip, car, x, y, ux, uy, locateQuad(strip, x, y, i), exact, out());
+      const r = footprintClearance(strip, car, { x, y, hx: ux, hy: uy }, locateQuad(strip, x, y, i), exact, out());
       const cx = x + ux * (car.wheelbaseM / 2), cy = y + uy * (car.wheelbaseM / 2);
       const brute = rectangleToWalls(rectangle(cx, cy, ux, uy, car.lengthM, car.widthM), wallSegments(track).walls);
       if (brute === 0) expect(r.marginM).toBeLessThan(1e-3);
