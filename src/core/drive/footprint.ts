@@ -45,7 +45,7 @@ export interface FootprintClearance {
 /** Which wall vertices a clearance test looks at (see footprintClearance). */
 export interface VertexReach {
   readonly window: number;
-  readonly bulgeM: number;
+  bulgeM: number;
   floorM: number;
 }
 

@@ -80,7 +80,7 @@ export function referenceDrive(strip: RoadStrip, speedMps: Float64Array, heading
   if (speedMps.length !== n) throw new RangeError(`speed profile has ${speedMps.length} points, the road ${n}`);
   const lapM = n * spacingM;
   const maxSteps = Math.ceil((TIME_LIMIT_FACTOR * referenceLapS + 60) / DRIVE_STEP_S);
-  const vertices = vertexReach(strip, vehicle);
+  const { reach: vertices, bulgeM: bulge } = vertexReach(strip, vehicle);
   const clearance: FootprintClearance = { marginM: Infinity, side: 0, quad: 0, exact: true };
   const aim = new Float64Array(2);
 
@@ -121,6 +121,7 @@ export function referenceDrive(strip: RoadStrip, speedMps: Float64Array, heading
     // 1-Lipschitz in the footprint's displacement), so the smallest margin stays exact
     if (exhaustive || lastMargin - moved <= minMargin) {
       vertices.floorM = exhaustive ? Infinity : minMargin;
+      vertices.bulgeM = bulge[j];
       footprintClearance(strip, vehicle, state, quad, vertices, clearance);
       lastMargin = clearance.exact ? clearance.marginM : clearance.marginM - vertices.bulgeM;
       moved = 0;
@@ -201,22 +202,61 @@ function dist2(C: Float64Array, i: number, x: number, y: number): number {
 // wall vertices to test against the footprint: those within half the car's diagonal along the
 // shortest face segment (plus one) either side of its quad, and only when a face could bulge
 // past the corners' margin: by at most l²κ/8 over the car's length l at the faces' largest
-// curvature κ (circumcircles of three consecutive vertices), doubled for safety
-function vertexReach(strip: RoadStrip, v: DriveVehicle): VertexReach {
-  let shortest = Infinity, kMax = 0;
+// curvature κ (circumcircles of three consecutive vertices) near the car, doubled for safety.
+// `bulgeM[j]` takes κ over the vertices the test can reach from a car whose rear axle is in quad
+// j (its centre may lie a few quads further on), so on straights the test is rarely needed.
+function vertexReach(strip: RoadStrip, v: DriveVehicle): { reach: VertexReach; bulgeM: Float64Array } {
+  const n = strip.n;
+  // largest curvature of either face at each vertex
+  const kappa = new Float64Array(n);
+  let shortest = Infinity;
   for (const face of [strip.left, strip.right]) {
-    for (let j = 0; j < strip.n; j++) {
-      const i = j === 0 ? strip.n - 1 : j - 1, k = j + 1 === strip.n ? 0 : j + 1;
+    for (let j = 0; j < n; j++) {
+      const i = j === 0 ? n - 1 : j - 1, k = j + 1 === n ? 0 : j + 1;
       const ax = face[2 * j] - face[2 * i], ay = face[2 * j + 1] - face[2 * i + 1];
       const bx = face[2 * k] - face[2 * j], by = face[2 * k + 1] - face[2 * j + 1];
       const a = Math.sqrt(ax * ax + ay * ay), b = Math.sqrt(bx * bx + by * by);
       const cx = ax + bx, cy = ay + by;
-      const kappa = (2 * Math.abs(ax * by - ay * bx)) / (a * b * Math.sqrt(cx * cx + cy * cy));
-      if (kappa > kMax) kMax = kappa;
+      const kj = (2 * Math.abs(ax * by - ay * bx)) / (a * b * Math.sqrt(cx * cx + cy * cy));
+      // NaN (a repeated vertex) counts as unbounded
+      if (!(kj <= kappa[j])) kappa[j] = kj === kj ? kj : Infinity;
       if (b < shortest) shortest = b;
     }
   }
   const halfDiag = Math.sqrt(v.lengthM * v.lengthM + v.widthM * v.widthM) / 2;
   const side = Math.max(v.lengthM, v.widthM);
-  return { window: Math.min(strip.n >> 1, Math.ceil(halfDiag / shortest) + 1), bulgeM: (side * side * kMax) / 4 + BULGE_SLACK_M, floorM: Infinity };
+  const window = Math.min(n >> 1, Math.ceil(halfDiag / shortest) + 1);
+  // vertices window + 1 either side of the centre's quad (curvature takes a neighbour), the
+  // centre up to half a wheelbase ahead of the rear axle, and two quads of slack
+  const lead = Math.ceil(v.wheelbaseM / 2 / shortest) + 1;
+  const kWin = windowMax(kappa, window + lead + 3);
+  const bulgeM = new Float64Array(n);
+  for (let j = 0; j < n; j++) bulgeM[j] = (side * side * kWin[j]) / 4 + BULGE_SLACK_M;
+  return { reach: { window, bulgeM: Infinity, floorM: Infinity }, bulgeM };
+}
+
+// largest value within r places either side of each place of a closed sequence (van Herk 1992,
+// Gil & Werman 1993: prefix and suffix maxima in blocks of the window's length)
+function windowMax(a: Float64Array, r: number): Float64Array {
+  const n = a.length, w = 2 * r + 1;
+  const out = new Float64Array(n);
+  if (w >= n) {
+    let m = -Infinity;
+    for (let i = 0; i < n; i++) if (a[i] > m) m = a[i];
+    out.fill(m);
+    return out;
+  }
+  // e[i] = a[i - r] (closed), for i in [0, n + 2r): the window of place j is e[j .. j + 2r]
+  const len = n + 2 * r;
+  const pre = new Float64Array(len), suf = new Float64Array(len);
+  for (let i = 0; i < len; i++) {
+    const v = a[(i - r + n) % n];
+    pre[i] = i % w === 0 || v > pre[i - 1] ? v : pre[i - 1];
+  }
+  for (let i = len - 1; i >= 0; i--) {
+    const v = a[(i - r + n) % n];
+    suf[i] = i === len - 1 || (i + 1) % w === 0 || v > suf[i + 1] ? v : suf[i + 1];
+  }
+  for (let j = 0; j < n; j++) out[j] = Math.max(suf[j], pre[j + w - 1]);
+  return out;
 }
