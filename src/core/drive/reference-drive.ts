@@ -248,14 +248,19 @@ function windowMax(a: Float64Array, r: number): Float64Array {
   }
   // e[i] = a[i - r] (closed), for i in [0, n + 2r): the window of place j is e[j .. j + 2r]
   const len = n + 2 * r;
+  const e = new Float64Array(len);
+  e.set(a.subarray(n - r), 0);
+  e.set(a, r);
+  e.set(a.subarray(0, r), n + r);
   const pre = new Float64Array(len), suf = new Float64Array(len);
-  for (let i = 0; i < len; i++) {
-    const v = a[(i - r + n) % n];
-    pre[i] = i % w === 0 || v > pre[i - 1] ? v : pre[i - 1];
+  for (let i = 0, b = 0; i < len; i++) {
+    pre[i] = b === 0 || e[i] > pre[i - 1] ? e[i] : pre[i - 1];
+    if (++b === w) b = 0;
   }
-  for (let i = len - 1; i >= 0; i--) {
-    const v = a[(i - r + n) % n];
-    suf[i] = i === len - 1 || (i + 1) % w === 0 || v > suf[i + 1] ? v : suf[i + 1];
+  // blocks end where i + 1 is a multiple of w, and at the end
+  for (let i = len - 1, b = len % w; i >= 0; i--) {
+    suf[i] = i === len - 1 || b === 0 || e[i] > suf[i + 1] ? e[i] : suf[i + 1];
+    b = b === 0 ? w - 1 : b - 1;
   }
   for (let j = 0; j < n; j++) out[j] = Math.max(suf[j], pre[j + w - 1]);
   return out;
