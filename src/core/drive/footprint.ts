@@ -83,7 +83,8 @@ export function footprintClearance(strip: RoadStrip, spec: FootprintSpec, pose: 
   for (let c = 0; c < 4; c++) {
     const a = c & 1 ? halfL : -halfL, b = c & 2 ? halfW : -halfW;
     const px = cx + a * ux - b * uy, py = cy + a * uy + b * ux;
-    const j = locateQuad(strip, px, py, (centre + (c & 1 ? shift : n - shift)) % n);
+    const h = c & 1 ? centre + shift : centre - shift;
+    const j = locateQuad(strip, px, py, h >= n ? h - n : h < 0 ? h + n : h);
     if (j < 0) {
       out.marginM = -Infinity;
       out.side = b > 0 ? 1 : -1;

@@ -171,12 +171,13 @@ function goalIndex(C: Float64Array, n: number, x: number, y: number, lookahead: 
   let g = hint % n;
   if (g <= quad) g += n;
   if (g - quad > n / 2) g = quad + 1;
+  // g stays in (quad, quad + n], below 2n: one subtraction wraps it
   // back off while the point before is already far enough
-  while (g - 1 > quad && dist2(C, (g - 1) % n, x, y) >= l2) g--;
+  while (g - 1 > quad && dist2(C, g - 1 < n ? g - 1 : g - 1 - n, x, y) >= l2) g--;
   // forward until far enough (at most once round)
   const end = quad + n;
-  while (g < end && dist2(C, g % n, x, y) < l2) g++;
-  return g % n;
+  while (g < end && dist2(C, g < n ? g : g - n, x, y) < l2) g++;
+  return g < n ? g : g - n;
 }
 
 // the point on the segment before centerline point `g` at distance `lookahead` from (x, y), into `out`
