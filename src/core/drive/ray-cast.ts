@@ -54,29 +54,23 @@ export function castRay(strip: RoadStrip, j: number, px: number, py: number, dx:
   out.wallSide = 0;
   out.gateM = Infinity;
   let entry = NONE;
+  // corners of the current quad, carried to the next one across the rung the ray leaves by
+  let k = j + 1 === n ? 0 : j + 1;
+  let rjx = R[2 * j], rjy = R[2 * j + 1], ljx = L[2 * j], ljy = L[2 * j + 1];
+  let rkx = R[2 * k], rky = R[2 * k + 1], lkx = L[2 * k], lky = L[2 * k + 1];
   for (let visited = 0; visited <= n; visited++) {
-    const k = j + 1 === n ? 0 : j + 1;
     if (gates !== null && out.gateM === Infinity) {
       for (let g = gates.first[j]; g < gates.first[j + 1]; g++) {
         const t = raySegment(px, py, dx, dy, gates.ends[4 * g], gates.ends[4 * g + 1], gates.ends[4 * g + 2], gates.ends[4 * g + 3]);
         if (t <= lengthM && t < out.gateM) out.gateM = t;
       }
     }
-    let best = Infinity, exit = NONE;
-    for (let e = 0; e < 4; e++) {
-      if (e === entry) continue;
-      // edge A→B of quad j, counter-clockwise
-      let ax: number, ay: number, bx: number, by: number;
-      if (e === 0) (ax = R[2 * j]), (ay = R[2 * j + 1]), (bx = R[2 * k]), (by = R[2 * k + 1]);
-      else if (e === 1) (ax = R[2 * k]), (ay = R[2 * k + 1]), (bx = L[2 * k]), (by = L[2 * k + 1]);
-      else if (e === 2) (ax = L[2 * k]), (ay = L[2 * k + 1]), (bx = L[2 * j]), (by = L[2 * j + 1]);
-      else (ax = L[2 * j]), (ay = L[2 * j + 1]), (bx = R[2 * j]), (by = R[2 * j + 1]);
-      const ex = bx - ax, ey = by - ay;
-      const den = ex * dy - ey * dx;
-      if (!(den < 0)) continue;
-      const t = -(ex * (py - ay) - ey * (px - ax)) / den;
-      if (t < best) (best = t), (exit = e);
-    }
+    // the edges counter-clockwise, the first smallest exit wins
+    let best = Infinity, exit = NONE, t: number;
+    if (entry !== 0 && (t = exitAlong(rjx, rjy, rkx, rky, px, py, dx, dy)) < best) (best = t), (exit = 0);
+    if (entry !== 1 && (t = exitAlong(rkx, rky, lkx, lky, px, py, dx, dy)) < best) (best = t), (exit = 1);
+    if (entry !== 2 && (t = exitAlong(lkx, lky, ljx, ljy, px, py, dx, dy)) < best) (best = t), (exit = 2);
+    if (entry !== 3 && (t = exitAlong(ljx, ljy, rjx, rjy, px, py, dx, dy)) < best) (best = t), (exit = 3);
     if (exit === NONE || best > lengthM) return out;
     if (exit === 0 || exit === 2) {
       out.wallM = Math.max(0, best);
@@ -84,8 +78,19 @@ export function castRay(strip: RoadStrip, j: number, px: number, py: number, dx:
       if (out.gateM > out.wallM) out.gateM = Infinity;
       return out;
     }
-    if (exit === 1) (j = k), (entry = 3);
-    else (j = j === 0 ? n - 1 : j - 1), (entry = 1);
+    if (exit === 1) {
+      j = k;
+      k = j + 1 === n ? 0 : j + 1;
+      (rjx = rkx), (rjy = rky), (ljx = lkx), (ljy = lky);
+      (rkx = R[2 * k]), (rky = R[2 * k + 1]), (lkx = L[2 * k]), (lky = L[2 * k + 1]);
+      entry = 3;
+    } else {
+      k = j;
+      j = j === 0 ? n - 1 : j - 1;
+      (rkx = rjx), (rky = rjy), (lkx = ljx), (lky = ljy);
+      (rjx = R[2 * j]), (rjy = R[2 * j + 1]), (ljx = L[2 * j]), (ljy = L[2 * j + 1]);
+      entry = 1;
+    }
   }
   return out;
 }
@@ -117,6 +122,15 @@ export function gateCells(strip: RoadStrip, gates: readonly { readonly s: number
     }
   });
   return { first, ends };
+}
+
+// where the ray leaves across the edge A→B (interior on its left): the t of the crossing, or
+// Infinity when the ray does not point outward across it
+function exitAlong(ax: number, ay: number, bx: number, by: number, px: number, py: number, dx: number, dy: number): number {
+  const ex = bx - ax, ey = by - ay;
+  const den = ex * dy - ey * dx;
+  if (!(den < 0)) return Infinity;
+  return -(ex * (py - ay) - ey * (px - ax)) / den;
 }
 
 // distance along the ray (unit direction) to the segment A–B, Infinity when it misses
