@@ -82,21 +82,24 @@ export function speedProfile(curvature: ArrayLike<number>, spacingM: number, lim
   const down = 2 * brake * spacingM;
   for (let changed = true; changed; ) {
     changed = false;
-    for (let k = 1; k <= n; k++) {
-      const i = (start + k) % n, prev = (start + k - 1) % n;
+    // once round forward from the start, then once round backward (indices wrap by hand: no modulo)
+    for (let k = 1, prev = start; k <= n; k++) {
+      const i = prev + 1 === n ? 0 : prev + 1;
       const reach = v2[prev] + up;
       if (reach < v2[i]) {
         v2[i] = reach;
         changed = true;
       }
+      prev = i;
     }
-    for (let k = 1; k <= n; k++) {
-      const i = (start - k + 2 * n) % n, next = (start - k + 1 + 2 * n) % n;
+    for (let k = 1, next = start; k <= n; k++) {
+      const i = next === 0 ? n - 1 : next - 1;
       const reach = v2[next] + down;
       if (reach < v2[i]) {
         v2[i] = reach;
         changed = true;
       }
+      next = i;
     }
   }
   const speedMps = new Float64Array(n);
@@ -104,7 +107,7 @@ export function speedProfile(curvature: ArrayLike<number>, spacingM: number, lim
   const timeS = new Float64Array(n);
   let t = 0, braking = 0, vMin = Infinity, vMax = 0;
   for (let i = 0; i < n; i++) {
-    const a = speedMps[i], b = speedMps[(i + 1) % n];
+    const a = speedMps[i], b = speedMps[i + 1 === n ? 0 : i + 1];
     if (i > 0) timeS[i] = t;
     const dt = (2 * spacingM) / (a + b);
     t += dt;
