@@ -230,39 +230,37 @@ function vertexReach(strip: RoadStrip, v: DriveVehicle): { reach: VertexReach; b
   // vertices window + 1 either side of the centre's quad (curvature takes a neighbour), the
   // centre up to half a wheelbase ahead of the rear axle, and two quads of slack
   const lead = Math.ceil(v.wheelbaseM / 2 / shortest) + 1;
-  const kWin = windowMax(kappa, window + lead + 3);
-  const bulgeM = new Float64Array(n);
-  for (let j = 0; j < n; j++) bulgeM[j] = (side * side * kWin[j]) / 4 + BULGE_SLACK_M;
+  const bulgeM = windowMax(kappa, window + lead + 3);
+  for (let j = 0; j < n; j++) bulgeM[j] = (side * side * bulgeM[j]) / 4 + BULGE_SLACK_M;
   return { reach: { window, bulgeM: Infinity, floorM: Infinity }, bulgeM };
 }
 
 // largest value within r places either side of each place of a closed sequence (van Herk 1992,
-// Gil & Werman 1993: prefix and suffix maxima in blocks of the window's length)
+// Gil & Werman 1993): over e[i] = a[i - r] (closed), the window of place j is e[j .. j + 2r], which
+// meets at most two blocks of its length: the suffix maximum of the first and the prefix maximum
+// of the second
 function windowMax(a: Float64Array, r: number): Float64Array {
   const n = a.length, w = 2 * r + 1;
   const out = new Float64Array(n);
   if (w >= n) {
     let m = -Infinity;
     for (let i = 0; i < n; i++) if (a[i] > m) m = a[i];
-    out.fill(m);
-    return out;
+    return out.fill(m);
   }
-  // e[i] = a[i - r] (closed), for i in [0, n + 2r): the window of place j is e[j .. j + 2r]
   const len = n + 2 * r;
-  const e = new Float64Array(len);
-  e.set(a.subarray(n - r), 0);
-  e.set(a, r);
-  e.set(a.subarray(0, r), n + r);
-  const pre = new Float64Array(len), suf = new Float64Array(len);
-  for (let i = 0, b = 0; i < len; i++) {
-    pre[i] = b === 0 || e[i] > pre[i - 1] ? e[i] : pre[i - 1];
-    if (++b === w) b = 0;
-  }
-  // blocks end where i + 1 is a multiple of w, and at the end
-  for (let i = len - 1, b = len % w; i >= 0; i--) {
-    suf[i] = i === len - 1 || b === 0 || e[i] > suf[i + 1] ? e[i] : suf[i + 1];
+  const suf = new Float64Array(len);
+  // blocks end where i + 1 is a multiple of w, and at the end; `at` indexes a for e[i]
+  for (let i = len - 1, b = len % w, at = (len - 1 - r) % n; i >= 0; i--) {
+    suf[i] = i === len - 1 || b === 0 || a[at] > suf[i + 1] ? a[at] : suf[i + 1];
     b = b === 0 ? w - 1 : b - 1;
+    at = at === 0 ? n - 1 : at - 1;
   }
-  for (let j = 0; j < n; j++) out[j] = Math.max(suf[j], pre[j + w - 1]);
+  for (let i = 0, b = 0, at = n - r, pre = -Infinity; i < len; i++) {
+    if (at === n) at = 0;
+    pre = b === 0 || a[at] > pre ? a[at] : pre;
+    if (i >= w - 1) out[i - w + 1] = Math.max(suf[i - w + 1], pre);
+    if (++b === w) b = 0;
+    at++;
+  }
   return out;
 }
