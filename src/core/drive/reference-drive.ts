@@ -171,12 +171,21 @@ function goalIndex(C: Float64Array, n: number, x: number, y: number, lookahead: 
   let g = hint % n;
   if (g <= quad) g += n;
   if (g - quad > n / 2) g = quad + 1;
-  // g stays in (quad, quad + n], below 2n: one subtraction wraps it
+  // g stays in (quad, quad + n], below 2n: one subtraction wraps it; the squared distances are
+  // written out here (a call that is not inlined would box each one)
   // back off while the point before is already far enough
-  while (g - 1 > quad && dist2(C, g - 1 < n ? g - 1 : g - 1 - n, x, y) >= l2) g--;
+  for (; g - 1 > quad; g--) {
+    const i = g - 1 < n ? g - 1 : g - 1 - n;
+    const dx = C[2 * i] - x, dy = C[2 * i + 1] - y;
+    if (!(dx * dx + dy * dy >= l2)) break;
+  }
   // forward until far enough (at most once round)
   const end = quad + n;
-  while (g < end && dist2(C, g < n ? g : g - n, x, y) < l2) g++;
+  for (; g < end; g++) {
+    const i = g < n ? g : g - n;
+    const dx = C[2 * i] - x, dy = C[2 * i + 1] - y;
+    if (!(dx * dx + dy * dy < l2)) break;
+  }
   return g < n ? g : g - n;
 }
 
@@ -193,11 +202,6 @@ function goalPoint(C: Float64Array, n: number, x: number, y: number, lookahead: 
   else if (tau > 1) tau = 1;
   out[0] = C[2 * a] + tau * dx;
   out[1] = C[2 * a + 1] + tau * dy;
-}
-
-function dist2(C: Float64Array, i: number, x: number, y: number): number {
-  const dx = C[2 * i] - x, dy = C[2 * i + 1] - y;
-  return dx * dx + dy * dy;
 }
 
 // wall vertices to test against the footprint: those within half the car's diagonal along the
