@@ -21,6 +21,12 @@ export interface BicycleState {
   speedMps: number;
 }
 
+/** What the driver holds over one step: path curvature, 1/m (tan δ / L), and longitudinal acceleration, m/s² (negative brakes). */
+export interface BicycleControl {
+  curvature: number;
+  accelMps2: number;
+}
+
 /** Half turns per step up to this use the series below, radians; larger ones Math.sin/cos. */
 const SERIES_HALF_TURN_RAD = 0.25;
 
@@ -44,13 +50,14 @@ export function turningRadiusM(wheelbaseM: number, steerRad: number): number {
  * evaluated from the half turn φ: the chord has length 2·sin(φ)/κ along the heading turned by φ.
  *
  * @param state pose and speed at the start of the step; overwritten with the state at its end
- * @param curvature path curvature of the rear axle's centre over the step, 1/m (tan δ / L)
- * @param accelMps2 longitudinal acceleration over the step, m/s² (negative brakes)
+ * @param control path curvature of the rear axle's centre and acceleration over the step (an
+ *   object rather than two numbers: a call that is not inlined would box each number)
  * @param dtS step, seconds
  * @returns the distance travelled, metres
- * @example const s = { x: 0, y: 0, hx: 1, hy: 0, speedMps: 10 }; stepBicycle(s, 0, 2, 1); s.x // 11
+ * @example const s = { x: 0, y: 0, hx: 1, hy: 0, speedMps: 10 }; stepBicycle(s, { curvature: 0, accelMps2: 2 }, 1); s.x // 11
  */
-export function stepBicycle(state: BicycleState, curvature: number, accelMps2: number, dtS: number): number {
+export function stepBicycle(state: BicycleState, control: BicycleControl, dtS: number): number {
+  const { curvature, accelMps2 } = control;
   const v0 = state.speedMps;
   let v1 = v0 + accelMps2 * dtS;
   let distM: number;

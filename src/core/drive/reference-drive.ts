@@ -13,7 +13,7 @@
  * Axes: x right, y up, metres; headings counter-clockwise from +x; lateral offsets positive to
  * the left of the direction of travel.
  */
-import { stepBicycle, type BicycleState } from './bicycle.js';
+import { stepBicycle, type BicycleControl, type BicycleState } from './bicycle.js';
 import { footprintClearance, type FootprintClearance, type VertexReach } from './footprint.js';
 import { pursuitCurvatureTo } from './pure-pursuit.js';
 import { locateQuad, type RoadStrip } from './road-strip.js';
@@ -83,6 +83,7 @@ export function referenceDrive(strip: RoadStrip, speedMps: Float64Array, heading
   const { reach: vertices, bulgeM: bulge } = vertexReach(strip, vehicle);
   const clearance: FootprintClearance = { marginM: Infinity, side: 0, quad: 0, exact: true };
   const aim = new Float64Array(2);
+  const control: BicycleControl = { curvature: NaN, accelMps2: NaN };
 
   const state: BicycleState = { x: C[0], y: C[1], hx: Math.cos(headingRad), hy: Math.sin(headingRad), speedMps: speedMps[0] };
   // the steering lock caps the path curvature at tan(lock) / L (bicycle.ts)
@@ -149,7 +150,9 @@ export function referenceDrive(strip: RoadStrip, speedMps: Float64Array, heading
     let curvature = pursuitCurvatureTo(state.x, state.y, state.hx, state.hy, gx, gy);
     if (curvature > maxCurvature) curvature = maxCurvature;
     else if (curvature < -maxCurvature) curvature = -maxCurvature;
-    const dist = stepBicycle(state, curvature, accel, DRIVE_STEP_S);
+    control.curvature = curvature;
+    control.accelMps2 = accel;
+    const dist = stepBicycle(state, control, DRIVE_STEP_S);
     // farthest any footprint point moved: the distance plus the turn times the reach
     moved += dist * (1 + Math.abs(curvature) * reach);
   }

@@ -20,7 +20,7 @@ describe('stepBicycle', () => {
     const s: BicycleState = { x: 0, y: 0, hx: 1, hy: 0, speedMps: v };
     const steps = Math.round((2 * Math.PI * R) / (v * dt));
     for (let k = 0; k < steps; k++) {
-      stepBicycle(s, Math.tan(delta) / L, 0, dt);
+      stepBicycle(s, { curvature: Math.tan(delta) / L, accelMps2: 0 }, dt);
       // centre of the circle at (0, R): turning left from the origin heading +x
       expect(Math.hypot(s.x, s.y - R)).toBeCloseTo(R, 9);
     }
@@ -33,7 +33,7 @@ describe('stepBicycle', () => {
     for (const dt of [0.02, 0.1, 0.5]) {
       const s: BicycleState = { x: 0, y: 0, hx: 1, hy: 0, speedMps: 12 };
       const a = 3.5, steps = Math.round(4 / dt), t = steps * dt;
-      for (let k = 0; k < steps; k++) stepBicycle(s, 0, a, dt);
+      for (let k = 0; k < steps; k++) stepBicycle(s, { curvature: 0, accelMps2: a }, dt);
       expect(s.x).toBeCloseTo(12 * t + (a * t * t) / 2, 9);
       expect(s.speedMps).toBeCloseTo(12 + a * t, 9);
       expect(s.y).toBe(0);
@@ -43,7 +43,7 @@ describe('stepBicycle', () => {
   it('braking stops the car at v0² / 2|a| and never reverses it', () => {
     // stopping distance under constant deceleration (classical kinematics)
     const s: BicycleState = { x: 0, y: 0, hx: 0, hy: 1, speedMps: 20 };
-    for (let k = 0; k < 300; k++) stepBicycle(s, 0, -8, 0.02);
+    for (let k = 0; k < 300; k++) stepBicycle(s, { curvature: 0, accelMps2: -8 }, 0.02);
     expect(s.speedMps).toBe(0);
     expect(s.y).toBeCloseTo((20 * 20) / (2 * 8), 9);
   });
@@ -55,7 +55,7 @@ describe('stepBicycle', () => {
     (curvature, v, heading) => {
       const dt = 0.02;
       const s: BicycleState = { x: 3, y: -2, hx: Math.cos(heading), hy: Math.sin(heading), speedMps: v };
-      stepBicycle(s, curvature, 0, dt);
+      stepBicycle(s, { curvature, accelMps2: 0 }, dt);
       const d = v * dt, turn = curvature * d;
       // arc of curvature κ and length d from the pose (elementary geometry)
       const x = curvature === 0 ? 3 + d * Math.cos(heading) : 3 + (Math.sin(heading + turn) - Math.sin(heading)) / curvature;

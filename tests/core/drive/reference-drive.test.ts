@@ -72,6 +72,9 @@ describe('referenceDrive', () => {
       { track: stadiumTrack(), vehicle: { ...car, widthM: 11 } },
       { track: stadiumTrack({ radiusM: 25, straightM: 120 }), vehicle: { ...car, maxSteerRad: (2 * Math.PI) / 180 } },
       { track: stadiumTrack({ radiusM: 25, straightM: 120 }), vehicle: { ...car, maxSteerRad: (9 * Math.PI) / 180 } },
+      // long cars, where a face bulges furthest between two corners (the bound taken near the car)
+      { track: stadiumTrack({ radiusM: 25, straightM: 120 }), vehicle: { ...car, lengthM: 8, wheelbaseM: 4.5 } },
+      { track: stadiumTrack({ radiusM: 8, straightM: 60 }), vehicle: { ...car, lengthM: 8, wheelbaseM: 4 } },
     ];
     for (const { track, vehicle } of cases) {
       const strip = buildRoadStrip(track);
