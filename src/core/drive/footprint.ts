@@ -78,6 +78,8 @@ export function footprintClearance(strip: RoadStrip, spec: FootprintSpec, pose: 
     return out;
   }
   const n = strip.n;
+  // the smallest margin so far and its wall, kept in locals (written to `out` on return)
+  let margin = Infinity, side = 0;
   // the front and rear corners lie about half a length ahead of and behind the centre
   const shift = Math.min(n >> 2, Math.round(halfL / strip.spacingM));
   for (let c = 0; c < 4; c++) {
@@ -91,11 +93,13 @@ export function footprintClearance(strip: RoadStrip, spec: FootprintSpec, pose: 
       return out;
     }
     const dl = leftFaceDistance(strip, j, px, py);
-    if (dl < out.marginM) (out.marginM = dl), (out.side = 1);
+    if (dl < margin) (margin = dl), (side = 1);
     const dr = rightFaceDistance(strip, j, px, py);
-    if (dr < out.marginM) (out.marginM = dr), (out.side = -1);
+    if (dr < margin) (margin = dr), (side = -1);
   }
-  if (out.marginM - reach.bulgeM > reach.floorM) {
+  if (margin - reach.bulgeM > reach.floorM) {
+    out.marginM = margin;
+    out.side = side;
     out.exact = false;
     return out;
   }
@@ -107,23 +111,25 @@ export function footprintClearance(strip: RoadStrip, spec: FootprintSpec, pose: 
   let outside2 = Infinity, outsideSide = 0;
   let i = (((centre - window) % n) + n) % n;
   for (let w = -window; w <= window + 1; w++) {
-    for (let side = 1; side >= -1; side -= 2) {
-      const face = side > 0 ? L : R;
+    for (let faceSide = 1; faceSide >= -1; faceSide -= 2) {
+      const face = faceSide > 0 ? L : R;
       const dx = face[2 * i] - cx, dy = face[2 * i + 1] - cy;
       const ox = Math.abs(dx * ux + dy * uy) - halfL;
       const oy = Math.abs(dy * ux - dx * uy) - halfW;
       if (ox < 0 && oy < 0) {
         const depth = ox > oy ? ox : oy;
-        if (depth < out.marginM) (out.marginM = depth), (out.side = side);
+        if (depth < margin) (margin = depth), (side = faceSide);
       } else {
         const px = ox > 0 ? ox : 0, py = oy > 0 ? oy : 0;
         const d2 = px * px + py * py;
-        if (d2 < outside2) (outside2 = d2), (outsideSide = side);
+        if (d2 < outside2) (outside2 = d2), (outsideSide = faceSide);
       }
     }
     i = i + 1 === n ? 0 : i + 1;
   }
   const d = Math.sqrt(outside2);
-  if (d < out.marginM) (out.marginM = d), (out.side = outsideSide);
+  if (d < margin) (margin = d), (side = outsideSide);
+  out.marginM = margin;
+  out.side = side;
   return out;
 }
