@@ -215,9 +215,8 @@ class JsonWriter {
       const item = items[i];
       if (typeof item === 'number') {
         this.reserve(20);
-        this.coordinate(item);
-      } else if (item === undefined || typeof item === 'function') this.ascii('null');
-      else this.value(item);
+        if (!this.millimetres(item)) this.valueAt(items, i);
+      } else this.valueAt(items, i);
     }
     this.byte(0x5d);
   }
@@ -229,14 +228,14 @@ class JsonWriter {
     for (let i = 0; i < n; i++) {
       const item = items[i];
       if (isPoint(item)) {
-        // the buffer may grow inside coordinate() (numbers off the millimetre grid): no alias
+        // the buffer may grow inside valueAt() (numbers off the millimetre grid): no alias
         this.reserve(2 * 20 + 4);
         if (i > 0) this.bytes[this.length++] = 0x2c;
         this.bytes[this.length++] = 0x5b;
-        this.coordinate(item[0]);
+        if (!this.millimetres(item[0])) this.valueAt(item, 0);
         this.reserve(21);
         this.bytes[this.length++] = 0x2c;
-        this.coordinate(item[1]);
+        if (!this.millimetres(item[1])) this.valueAt(item, 1);
         this.byte(0x5d);
         continue;
       }
@@ -247,18 +246,27 @@ class JsonWriter {
     this.byte(0x5d);
   }
 
-  // a number; millimetres written in place (the caller reserved 20 bytes), others by number();
-  // small enough to be inlined into the array loops, so the double is not boxed for a call
-  private coordinate(x: number): void {
+  // a number on the millimetre grid, written in place (the caller reserved 20 bytes): true, else
+  // nothing is written. Small enough to be inlined into the array loops; the caller writes any
+  // other number from the array itself (valueAt), so the double read from the array is never
+  // passed as a value, which would make V8 allocate a heap number for every element read
+  private millimetres(x: number): boolean {
     const a = x < 0 ? -x : x;
     const m = Math.round(a * 1000);
-    if (a >= 1e-3 && a < 1e6 && m / 1000 === a) {
-      if (x < 0) this.bytes[this.length++] = 0x2d;
-      const whole = (m / 1000) | 0;
-      this.unsigned(whole);
-      const milli = m - whole * 1000;
-      if (milli !== 0) this.milli(milli);
-    } else this.number(x);
+    if (!(a >= 1e-3 && a < 1e6 && m / 1000 === a)) return false;
+    if (x < 0) this.bytes[this.length++] = 0x2d;
+    const whole = (m / 1000) | 0;
+    this.unsigned(whole);
+    const milli = m - whole * 1000;
+    if (milli !== 0) this.milli(milli);
+    return true;
+  }
+
+  // item i of an array, as an array item: undefined and functions are null
+  private valueAt(items: readonly unknown[], i: number): void {
+    const item = items[i];
+    if (item === undefined || typeof item === 'function') this.ascii('null');
+    else this.value(item);
   }
 
   private object(o: Record<string, unknown>): void {
@@ -272,13 +280,39 @@ class JsonWriter {
       if (item === undefined || typeof item === 'function') continue;
       if (!first) this.byte(0x2c);
       first = false;
-      this.ascii(JSON.stringify(key));
-      this.byte(0x3a);
+      this.key(key);
       this.value(item);
     }
     this.byte(0x7d);
   }
+
+  // `"key":`, from the cache of keys met before (a track repeats a few dozen keys hundreds of times)
+  private key(key: string): void {
+    let text = KEY_TEXT.get(key);
+    if (text === undefined) {
+      const json = `${JSON.stringify(key)}:`;
+      // a character beyond ASCII does not fit a byte: written (and flagged) by ascii(), uncached
+      if (KEY_TEXT.size >= MAX_CACHED_KEYS || /[^\x00-\x7f]/.test(json)) {
+        this.ascii(json);
+        return;
+      }
+      text = new Uint8Array(json.length);
+      for (let k = 0; k < json.length; k++) text[k] = json.charCodeAt(k);
+      KEY_TEXT.set(key, text);
+    }
+    const n = text.length;
+    this.reserve(n);
+    const b = this.bytes;
+    let at = this.length;
+    for (let k = 0; k < n; k++) b[at++] = text[k];
+    this.length = at;
+  }
 }
+
+/** Keys written before, as the bytes of `"key":` (ASCII keys only, at most MAX_CACHED_KEYS). */
+const KEY_TEXT = new Map<string, Uint8Array>();
+/** Bounds the key cache for data with ever new keys; a track has under a hundred distinct keys. */
+const MAX_CACHED_KEYS = 1024;
 
 // an array of exactly two numbers
 function isPoint(v: unknown): v is readonly [number, number] {
