@@ -109,32 +109,27 @@ function shipTrack(
   const right: Point[] = new Array(n);
   const s: number[] = new Array(n);
   const headingDeg: number[] = new Array(n);
-  // the shipped per-point arrays, filled in the loop (copying typed arrays with Array.from is slow)
-  const curvatureList: number[] = [];
-  const halfLeftList: number[] = [];
-  const halfRightList: number[] = [];
-  const leftFace = new Float64Array(2 * n);
-  const rightFace = new Float64Array(2 * n);
-  const wanted = new Float64Array(n);
-  for (let i = 0; i < n; i++) wanted[i] = width(i / n);
-  limitSlopeCyclic(wanted, spacing, WIDTH_SLOPE_SHIPPED);
+  // the shipped per-point arrays, filled in the loop (copying typed arrays with Array.from is
+  // slow, and growing them by push allocates about three times their size)
+  const curvatureList: number[] = new Array(n);
+  const halfLeftList: number[] = new Array(n);
+  const halfRightList: number[] = new Array(n);
+  // the wanted widths, graded, then halved and rounded in place
+  for (let i = 0; i < n; i++) half[i] = width(i / n);
+  limitSlopeCyclic(half, spacing, WIDTH_SLOPE_SHIPPED);
   for (let i = 0; i < n; i++) {
-    const h = r3(wanted[i] / 2);
+    const h = r3(half[i] / 2);
     half[i] = h;
     widthM[i] = 2 * h;
     curvature[i] = r6(curve.curvature[i]);
-    curvatureList.push(curvature[i]);
-    halfLeftList.push(h);
-    halfRightList.push(h);
+    curvatureList[i] = curvature[i];
+    halfLeftList[i] = h;
+    halfRightList[i] = h;
     const x = curve.points[2 * i], y = curve.points[2 * i + 1];
     const nx = curve.normals[2 * i], ny = curve.normals[2 * i + 1];
-    leftFace[2 * i] = x + nx * h;
-    leftFace[2 * i + 1] = y + ny * h;
-    rightFace[2 * i] = x - nx * h;
-    rightFace[2 * i + 1] = y - ny * h;
     points[i] = [r3(x), r3(y)];
-    left[i] = [r3(leftFace[2 * i]), r3(leftFace[2 * i + 1])];
-    right[i] = [r3(rightFace[2 * i]), r3(rightFace[2 * i + 1])];
+    left[i] = [r3(x + nx * h), r3(y + ny * h)];
+    right[i] = [r3(x - nx * h), r3(y - ny * h)];
     s[i] = r3(i * spacing);
     headingDeg[i] = degrees(Math.atan2(curve.tangents[2 * i + 1], curve.tangents[2 * i]));
   }
@@ -148,8 +143,11 @@ function shipTrack(
     const i = Math.min(n - 1, Math.floor(x));
     const j = (i + 1) % n;
     const t = x - i;
-    const lx = lerp(leftFace[2 * i], leftFace[2 * j], t), ly = lerp(leftFace[2 * i + 1], leftFace[2 * j + 1], t);
-    const rx = lerp(rightFace[2 * i], rightFace[2 * j], t), ry = lerp(rightFace[2 * i + 1], rightFace[2 * j + 1], t);
+    // the wall faces (unrounded) at the two samples, as the walls above were made from them
+    const lx = lerp(face(curve.points, curve.normals, half, 2 * i, 1), face(curve.points, curve.normals, half, 2 * j, 1), t);
+    const ly = lerp(face(curve.points, curve.normals, half, 2 * i + 1, 1), face(curve.points, curve.normals, half, 2 * j + 1, 1), t);
+    const rx = lerp(face(curve.points, curve.normals, half, 2 * i, -1), face(curve.points, curve.normals, half, 2 * j, -1), t);
+    const ry = lerp(face(curve.points, curve.normals, half, 2 * i + 1, -1), face(curve.points, curve.normals, half, 2 * j + 1, -1), t);
     const gx = lx - rx, gy = ly - ry;
     const len = Math.sqrt(gx * gx + gy * gy);
     gates.push({ index: k, s: gs, left: [r3(lx), r3(ly)], right: [r3(rx), r3(ry)], forward: [r6((ly - ry) / len), r6(-(lx - rx) / len)] });
@@ -304,6 +302,12 @@ function degrees(rad: number): number {
   let d = Math.round(rad * (180 / Math.PI) * 1000) / 1000;
   if (d <= -180) d += 360;
   return d + 0;
+}
+
+// coordinate c (2i: x, 2i + 1: y) of the left (side 1) or right (side -1) wall face at sample i
+function face(points: Float64Array, normals: Float64Array, half: Float64Array, c: number, side: 1 | -1): number {
+  const h = half[c >> 1];
+  return side > 0 ? points[c] + normals[c] * h : points[c] - normals[c] * h;
 }
 
 function lerp(a: number, b: number, t: number): number {
