@@ -63,6 +63,8 @@ export function placeControlPoints(plan: Plan, trace: Trace, startS: number): { 
     integral[k + 1] = integral[k] + (ds * (1 / gap[k] + 1 / gap[k + 1 < m ? k + 1 : 0])) / 2;
   }
   const total = integral[m];
+  // the integral at the trace's vertices: the knots of its inverse (one view for all the points)
+  const knots = integral.subarray(0, m);
   const count = Math.max(8, Math.round(total));
   const i0 = integralAt(integral, trace.s, lapM, startS);
   const traceS = new Float64Array(count);
@@ -75,7 +77,7 @@ export function placeControlPoints(plan: Plan, trace: Trace, startS: number): { 
   for (let j = 0; j < count; j++) {
     let target = i0 + (j * total) / count;
     if (target >= total) target -= total;
-    const s = lapPositionAt(integral, trace.s, lapM, target);
+    const s = interpolateClosed(knots, total, trace.s, lapM, target);
     traceS[j] = (s - startS + lapM) % lapM;
     pointOnTrace(trace, lapM, s, cursor, p);
     const dx = p[0] - origin[0], dy = p[1] - origin[1];
@@ -113,27 +115,24 @@ export function pointOnTrace(trace: Trace, lapM: number, s: number, cursor: { k:
 // limit |gap_a - gap_b| <= slope * |s_a - s_b| around the loop (two passes each way cover the wrap)
 function gradeCyclic(gap: Float64Array, s: Float64Array, lapM: number, slope: number): void {
   const m = gap.length;
+  // neighbour indices wrap by comparison, not by integer division
   for (let round = 0; round < 2; round++) {
     for (let k = 1; k <= m; k++) {
-      const a = k - 1, b = k % m;
+      const a = k - 1, b = k < m ? k : 0;
       const ds = b === 0 ? lapM - s[a] : s[b] - s[a];
       gap[b] = Math.min(gap[b], gap[a] + slope * ds);
     }
     for (let k = m - 1; k >= 0; k--) {
-      const a = (k + 1) % m, b = k;
+      const a = k + 1 < m ? k + 1 : 0, b = k;
       const ds = a === 0 ? lapM - s[b] : s[a] - s[b];
       gap[b] = Math.min(gap[b], gap[a] + slope * ds);
     }
   }
 }
 
-// ∫ ds / gap at lap position x, and its inverse (the trace's vertices are the knots)
+// ∫ ds / gap at lap position x (the trace's vertices are the knots)
 function integralAt(integral: Float64Array, s: Float64Array, lapM: number, x: number): number {
   return interpolateClosed(s, lapM, integral, integral[s.length], x);
-}
-
-function lapPositionAt(integral: Float64Array, s: Float64Array, lapM: number, target: number): number {
-  return interpolateClosed(integral.subarray(0, s.length), integral[s.length], s, lapM, target);
 }
 
 const CONTROL_SCALE = 10 ** CONTROL_DECIMALS;
