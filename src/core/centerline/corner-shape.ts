@@ -37,10 +37,10 @@ export interface CornerShape {
  *
  * @param rng the plan stream
  * @param kind plateau family
- * @param noise seamless noise, read along a window of the loop starting at `noiseAt`
+ * @param wobble the noise at the knots, from {@link shapeNoise}
  * @param noiseAmp relative amplitude of the modulation, 0..0.6
  */
-export function drawCornerShape(rng: Rng, kind: ShapeKind, noise: LoopNoise, noiseAt: number, noiseAmp: number): CornerShape {
+export function drawCornerShape(rng: Rng, kind: ShapeKind, wobble: Float64Array, noiseAmp: number): CornerShape {
   const rampIn = uniform(rng, 0.1, 0.35);
   const rampOut = uniform(rng, 0.1, 0.35);
   const plateauFrom = kind === 'tightening' ? uniform(rng, 0.6, 0.85) : 1;
@@ -53,8 +53,7 @@ export function drawCornerShape(rng: Rng, kind: ShapeKind, noise: LoopNoise, noi
     const ramp = Math.min(smoothstep(v / rampIn), smoothstep((1 - v) / rampOut));
     // plateau level moves linearly between the ramps; a double apex dips in the middle
     const level = plateauFrom + (plateauTo - plateauFrom) * v - dip * bump((v - 0.5) / 0.25);
-    const wobble = 1 + noiseAmp * noise(noiseAt + v * 0.02);
-    const f = Math.max(0, ramp * level * wobble);
+    const f = Math.max(0, ramp * level * (1 + noiseAmp * wobble[j]));
     knots[j] = f;
     if (f > peak) peak = f;
   }
@@ -65,6 +64,18 @@ export function drawCornerShape(rng: Rng, kind: ShapeKind, noise: LoopNoise, noi
   }
   // trapezoid rule of the piecewise-linear profile; the end knots are 0
   return { kind, knots, mean: sum / SHAPE_INTERVALS, minRamp: Math.min(rampIn, rampOut) };
+}
+
+/**
+ * The noise a corner's profile is modulated by, at its inner knots j = 1..SHAPE_INTERVALS - 1
+ * (the end knots stay 0): seamless noise read along a window of the loop starting at `noiseAt`
+ * (2% of the loop per corner). It depends on the corner's place only, so the planner reads it
+ * once per place for all its draws.
+ */
+export function shapeNoise(noise: LoopNoise, noiseAt: number): Float64Array {
+  const wobble = new Float64Array(SHAPE_INTERVALS + 1);
+  for (let j = 1; j < SHAPE_INTERVALS; j++) wobble[j] = noise(noiseAt + (j / SHAPE_INTERVALS) * 0.02);
+  return wobble;
 }
 
 /** Share of peak curvature at corner fraction v in [0, 1] (linear between knots). */

@@ -6,7 +6,7 @@ import type { Rng } from '../random/streams.js';
 import { normal, pickWeighted, uniform } from '../random/streams.js';
 import { fitAngles } from './angles.js';
 import { solveStraights } from './closure.js';
-import { drawCornerShape, type ShapeKind } from './corner-shape.js';
+import { drawCornerShape, shapeNoise, type ShapeKind } from './corner-shape.js';
 import type { Plan, PlannedCorner } from './plan-types.js';
 import { cornerDisplacement } from './trace.js';
 import { macroCollision, type MacroCollision } from './macro-check.js';
@@ -81,15 +81,27 @@ export function planLap(p: TrackParams, split: TurnSplit, rng: Rng, noise: LoopN
   // the loop's direction carries the +360 (with as many corners each way, the drawn direction does)
   const majorTotal = Math.max(split.leftTurningDeg, split.rightTurningDeg) * DEG;
   const minorTotal = Math.min(split.leftTurningDeg, split.rightTurningDeg) * DEG;
+  // the shape noise of the corner at each place, read on the first draw that gets that far
+  const wobble: Float64Array[] = [];
   for (let draw = 0; draw < ORDER_DRAWS; draw++) {
-    const plan = planOnce(p, rng, noise, loopSign, majorCount, minorCount, majorTotal, minorTotal);
+    const plan = planOnce(p, rng, noise, wobble, loopSign, majorCount, minorCount, majorTotal, minorTotal);
     if (plan !== null) return plan;
   }
   return null;
 }
 
 // one ordering of the corners, its angles, shapes and radii, then the straights
-function planOnce(p: TrackParams, rng: Rng, noise: LoopNoise, loopSign: 1 | -1, majorCount: number, minorCount: number, majorTotal: number, minorTotal: number): Plan | null {
+function planOnce(
+  p: TrackParams,
+  rng: Rng,
+  noise: LoopNoise,
+  wobble: Float64Array[],
+  loopSign: 1 | -1,
+  majorCount: number,
+  minorCount: number,
+  majorTotal: number,
+  minorTotal: number,
+): Plan | null {
 
   // the band narrows as 1/√n beyond BAND_CORNERS corners: the running turn of many corners
   // strays like a random walk, and wide strays make long laps fold over themselves
@@ -116,7 +128,8 @@ function planOnce(p: TrackParams, rng: Rng, noise: LoopNoise, loopSign: 1 | -1, 
 
   // shapes, then radii: a relative radius per corner, scaled so that corners take their share of the lap
   const noiseAmp = 0.45 * p.noise;
-  const shapes = signs.map((_, i) => drawCornerShape(rng, drawShapeKind(rng), noise, i / n, noiseAmp));
+  // (every draw orders all the corners: n, and so each place's noise, is the same)
+  const shapes = signs.map((_, i) => drawCornerShape(rng, drawShapeKind(rng), (wobble[i] ??= shapeNoise(noise, i / n)), noiseAmp));
   const relRadius = new Float64Array(n);
   const meanAngle = (majorTotal + minorTotal) / n;
   for (let i = 0; i < n; i++) relRadius[i] = drawRelativeRadius(rng, angles[i] / meanAngle);

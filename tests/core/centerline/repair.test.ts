@@ -4,7 +4,7 @@
 
 import { describe, expect, it } from 'vitest';
 import { solveStraights } from '../../../src/core/centerline/closure.js';
-import { drawCornerShape } from '../../../src/core/centerline/corner-shape.js';
+import { drawCornerShape, SHAPE_INTERVALS } from '../../../src/core/centerline/corner-shape.js';
 import { macroCollision, macroOverlap } from '../../../src/core/centerline/macro-check.js';
 import { PLAN_STEP_M, pushApart } from '../../../src/core/centerline/plan.js';
 import type { PlannedCorner } from '../../../src/core/centerline/plan-types.js';
@@ -13,7 +13,7 @@ import { MIN_STRAIGHT_M } from '../../../src/core/params/feasibility.js';
 import { stream } from '../../../src/core/random/streams.js';
 
 // a plain corner profile (no noise), drawn once from a fixed stream
-const constant = drawCornerShape(stream(1, 0, 'plan'), 'constant', () => 0, 0, 0);
+const constant = drawCornerShape(stream(1, 0, 'plan'), 'constant', new Float64Array(SHAPE_INTERVALS + 1), 0);
 
 // four left corners of 90° (radius 20 m): a rectangle whose straights the test chooses
 function rectangle() {
