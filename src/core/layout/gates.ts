@@ -23,7 +23,8 @@ export function placeGates(curvature: Float64Array, spacingM: number, range: { m
     let prev = 1 / clamp(c * law[0], range.min, range.max);
     if (out) out[0] = 0;
     for (let i = 1; i <= n; i++) {
-      const next = 1 / clamp(c * law[i % n], range.min, range.max);
+      // law[i % n] without an integer division (the root search runs a dozen passes)
+      const next = 1 / clamp(c * law[i < n ? i : 0], range.min, range.max);
       sum += 0.5 * (prev + next) * spacingM;
       if (out) out[i] = sum;
       prev = next;

@@ -39,13 +39,14 @@ export function widthProfile(range: RangeM, noise: number, lapM: number, rng: Rn
 export function limitSlopeCyclic(values: Float64Array, spacingM: number, slope: number): void {
   const n = values.length;
   const step = slope * spacingM;
+  // neighbour indices wrap by comparison, not by integer division
   for (let round = 0; round < 2; round++) {
     for (let k = 1; k <= n; k++) {
-      const i = k % n, j = k - 1;
+      const i = k < n ? k : 0, j = k - 1;
       if (values[i] > values[j] + step) values[i] = values[j] + step;
     }
     for (let k = n - 2; k >= -1; k--) {
-      const i = (k + n) % n, j = (k + 1) % n;
+      const i = k >= 0 ? k : n - 1, j = k + 1;
       if (values[i] > values[j] + step) values[i] = values[j] + step;
     }
   }
