@@ -104,16 +104,18 @@ function shipTrack(
   const half = new Float64Array(n);
   const widthM = new Float64Array(n);
   const curvature = new Float64Array(n);
-  const points: Point[] = new Array(n);
-  const left: Point[] = new Array(n);
-  const right: Point[] = new Array(n);
-  const s: number[] = new Array(n);
-  const headingDeg: number[] = new Array(n);
-  // the shipped per-point arrays, filled in the loop (copying typed arrays with Array.from is
-  // slow, and growing them by push allocates about three times their size)
-  const curvatureList: number[] = new Array(n);
-  const halfLeftList: number[] = new Array(n);
-  const halfRightList: number[] = new Array(n);
+  // the shipped per-point arrays, appended to in index order by the loop below so that they stay
+  // packed: `new Array(n)` makes holey arrays, which JSON.stringify walks on a slow path (a
+  // default track's text took 1.60 ms instead of 1.15 ms); copying typed arrays with Array.from
+  // is slow
+  const points: Point[] = [];
+  const left: Point[] = [];
+  const right: Point[] = [];
+  const s: number[] = [];
+  const headingDeg: number[] = [];
+  const curvatureList: number[] = [];
+  const halfLeftList: number[] = [];
+  const halfRightList: number[] = [];
   // the wanted widths, graded, then halved and rounded in place
   for (let i = 0; i < n; i++) half[i] = width(i / n);
   limitSlopeCyclic(half, spacing, WIDTH_SLOPE_SHIPPED);
