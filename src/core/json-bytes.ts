@@ -77,28 +77,18 @@ class JsonWriter {
   }
 
   number(x: number): void {
-    if (x === 0) {
-      this.byte(0x30); // also -0, which JSON writes as 0
+    this.reserve(NUMBER_ROOM);
+    const next = putGridNumber(this.bytes, this.length, x);
+    if (next >= 0) {
+      this.length = next;
       return;
     }
     if (!Number.isFinite(x)) {
       this.ascii('null');
       return;
     }
+    // seven to nine decimals
     const a = x < 0 ? -x : x;
-    if (a >= 1e-3 && a < 1e6) {
-      // most of a track: millimetres (three decimals at most)
-      const m = Math.round(a * 1000);
-      if (m / 1000 === a) {
-        this.reserve(20);
-        if (x < 0) this.bytes[this.length++] = 0x2d;
-        const whole = (m / 1000) | 0;
-        this.unsigned(whole);
-        const milli = m - whole * 1000;
-        if (milli !== 0) this.milli(milli);
-        return;
-      }
-    }
     if (a >= 1e-6 && a < 1e6) {
       const k = Math.round(a * SCALE);
       if (k / SCALE === a && k < MAX_DIGITS_VALUE) {
@@ -203,63 +193,66 @@ class JsonWriter {
     this.byte(0x5d);
   }
 
-  // an array that starts with a number: the common case of a track (coordinates, profiles)
+  // an array that starts with a number: the common case of a track (coordinates, profiles).
+  // Room for every item is reserved at once and the loop writes through locals; an item the fast
+  // path does not take is written by valueAt() (the buffer may grow there: reloaded after it).
   private numbers(items: readonly unknown[]): void {
     const n = items.length;
-    this.byte(0x5b);
+    this.reserve(n * NUMBER_ROOM + 2);
+    let b = this.bytes;
+    let at = this.length;
+    b[at++] = 0x5b;
     for (let i = 0; i < n; i++) {
-      if (i > 0) {
-        this.reserve(1);
-        this.bytes[this.length++] = 0x2c;
-      }
+      if (i > 0) b[at++] = 0x2c;
       const item = items[i];
-      if (typeof item === 'number') {
-        this.reserve(20);
-        if (!this.millimetres(item)) this.valueAt(items, i);
-      } else this.valueAt(items, i);
-    }
-    this.byte(0x5d);
-  }
-
-  // an array that starts with an [x, y] pair: points, wall faces, control points
-  private points(items: readonly unknown[]): void {
-    const n = items.length;
-    this.byte(0x5b);
-    for (let i = 0; i < n; i++) {
-      const item = items[i];
-      if (isPoint(item)) {
-        // the buffer may grow inside valueAt() (numbers off the millimetre grid): no alias
-        this.reserve(2 * 20 + 4);
-        if (i > 0) this.bytes[this.length++] = 0x2c;
-        this.bytes[this.length++] = 0x5b;
-        if (!this.millimetres(item[0])) this.valueAt(item, 0);
-        this.reserve(21);
-        this.bytes[this.length++] = 0x2c;
-        if (!this.millimetres(item[1])) this.valueAt(item, 1);
-        this.byte(0x5d);
+      const next = typeof item === 'number' ? putGridNumber(b, at, item) : -1;
+      if (next >= 0) {
+        at = next;
         continue;
       }
-      if (i > 0) this.byte(0x2c);
-      if (item === undefined || typeof item === 'function') this.ascii('null');
-      else this.value(item);
+      this.length = at;
+      this.valueAt(items, i);
+      this.reserve((n - i) * NUMBER_ROOM + 2);
+      b = this.bytes;
+      at = this.length;
     }
-    this.byte(0x5d);
+    b[at++] = 0x5d;
+    this.length = at;
   }
 
-  // a number on the millimetre grid, written in place (the caller reserved 20 bytes): true, else
-  // nothing is written. Small enough to be inlined into the array loops; the caller writes any
-  // other number from the array itself (valueAt), so the double read from the array is never
-  // passed as a value, which would make V8 allocate a heap number for every element read
-  private millimetres(x: number): boolean {
-    const a = x < 0 ? -x : x;
-    const m = Math.round(a * 1000);
-    if (!(a >= 1e-3 && a < 1e6 && m / 1000 === a)) return false;
-    if (x < 0) this.bytes[this.length++] = 0x2d;
-    const whole = (m / 1000) | 0;
-    this.unsigned(whole);
-    const milli = m - whole * 1000;
-    if (milli !== 0) this.milli(milli);
-    return true;
+  // an array that starts with an [x, y] pair: points, wall faces, control points (as numbers())
+  private points(items: readonly unknown[]): void {
+    const n = items.length;
+    this.reserve(n * POINT_ROOM + 2);
+    let b = this.bytes;
+    let at = this.length;
+    b[at++] = 0x5b;
+    for (let i = 0; i < n; i++) {
+      if (i > 0) b[at++] = 0x2c;
+      const item = items[i];
+      if (isPoint(item)) {
+        b[at++] = 0x5b;
+        let next = putGridNumber(b, at, item[0]);
+        if (next >= 0) {
+          b[next++] = 0x2c;
+          next = putGridNumber(b, next, item[1]);
+          if (next >= 0) {
+            b[next++] = 0x5d;
+            at = next;
+            continue;
+          }
+        }
+        // a coordinate off the grids: the whole pair again, item by item
+        at--;
+      }
+      this.length = at;
+      this.valueAt(items, i);
+      this.reserve((n - i) * POINT_ROOM + 2);
+      b = this.bytes;
+      at = this.length;
+    }
+    b[at++] = 0x5d;
+    this.length = at;
   }
 
   // item i of an array, as an array item: undefined and functions are null
@@ -313,6 +306,80 @@ class JsonWriter {
 const KEY_TEXT = new Map<string, Uint8Array>();
 /** Bounds the key cache for data with ever new keys; a track has under a hundred distinct keys. */
 const MAX_CACHED_KEYS = 1024;
+
+/** Bytes reserved per number of an array: ',', sign, 6 whole digits, '.', 6 decimals and the 3 bytes a table copy may write beyond them. */
+const NUMBER_ROOM = 20;
+/** Bytes reserved per [x, y] item of an array. */
+const POINT_ROOM = 2 * NUMBER_ROOM + 4;
+
+/**
+ * x written at b[at] when it is 0 or a multiple of 1e-6 with |x| in [1e-6, 1e6) (millimetres
+ * and the six-decimal profiles: most of a track), the same text as `JSON.stringify` (see the top
+ * of this file; the grid test is `k / 1e6 === |x|`); returns the position after it, or -1 for
+ * any other number (then what was written is garbage the caller overwrites). Writes up to 3 bytes
+ * beyond the text (whole 4-byte table entries): the caller reserved NUMBER_ROOM. Small enough to
+ * be inlined into the array loops, so that the double read from an array is not boxed for a call.
+ */
+function putGridNumber(b: Uint8Array, at: number, x: number): number {
+  if (x === 0) {
+    b[at] = 0x30; // also -0, which JSON writes as 0
+    return at + 1;
+  }
+  const a = x < 0 ? -x : x;
+  if (!(a >= 1e-6 && a < 1e6)) return -1;
+  const m = Math.round(a * 1000);
+  let micro = 0;
+  if (m / 1000 !== a) {
+    micro = Math.round(a * 1e6);
+    if (micro / 1e6 !== a) return -1;
+  }
+  if (x < 0) b[at++] = 0x2d;
+  const whole = a | 0;
+  if (whole < SMALL) {
+    const from = 4 * whole;
+    b[at] = SMALL_DIGITS[from];
+    b[at + 1] = SMALL_DIGITS[from + 1];
+    b[at + 2] = SMALL_DIGITS[from + 2];
+    b[at + 3] = SMALL_DIGITS[from + 3];
+    at += SMALL_LENGTH[whole];
+  } else {
+    let digits = 5;
+    for (let t = whole; t >= 100_000; t = (t / 10) | 0) digits++;
+    at += digits;
+    for (let t = whole, k = at; k > at - digits; ) {
+      const q = (t / 10) | 0;
+      b[--k] = 0x30 + (t - q * 10);
+      t = q;
+    }
+  }
+  if (micro === 0) {
+    const milli = m - whole * 1000;
+    if (milli !== 0) {
+      const from = 4 * milli;
+      b[at] = MILLI_TEXT[from];
+      b[at + 1] = MILLI_TEXT[from + 1];
+      b[at + 2] = MILLI_TEXT[from + 2];
+      b[at + 3] = MILLI_TEXT[from + 3];
+      at += MILLI_LENGTH[milli];
+    }
+    return at;
+  }
+  // six decimals, the last not 0 after dropping trailing zeros (micro is not on the millimetre grid)
+  let t = micro - whole * 1e6;
+  let digits = 6;
+  for (let q = (t / 10) | 0; t === q * 10; q = (t / 10) | 0) {
+    t = q;
+    digits--;
+  }
+  b[at] = 0x2e;
+  const end = at + 1 + digits;
+  for (let k = end; k > at + 1; ) {
+    const q = (t / 10) | 0;
+    b[--k] = 0x30 + (t - q * 10);
+    t = q;
+  }
+  return end;
+}
 
 // an array of exactly two numbers
 function isPoint(v: unknown): v is readonly [number, number] {

@@ -40,6 +40,22 @@ describe('jsonBytesWithSha256 writes the same text as JSON.stringify', () => {
     expect(jsonWithSha256(xs)).toEqual(reference(xs));
   });
 
+  // the six-decimal path (curvature, headings): every whole-part length, leading zeros in the
+  // decimals, trailing zeros dropped, values just off the millimetre grid and next to 1e-6
+  test('six-decimal numbers', () => {
+    const edge = [
+      0.000001, 0.000009, 0.000123, 0.00012, 0.0001, 0.001001, 0.123456, 0.12345, 0.1234, -0.000777, -0.05, 1.000001,
+      9.999999, 12.34567, 1234.567891, 9999.999999, 10000.000001, 12345.678901, 99999.9999, 100000.000001,
+      123456.000001, 999999.999999, -999999.999999, 0.0000011, 0.0000015, 1.0000001, 0.1 + 0.2,
+    ];
+    for (const x of edge) expect(jsonWithSha256([x, [x, -x]]), String(x)).toEqual(reference([x, [x, -x]]));
+  });
+  test.prop([fc.array(fc.integer({ min: -(10 ** 12) + 1, max: 10 ** 12 - 1 }).map((k) => k / 1e6), { maxLength: 64 })], { numRuns: 500, seed: 20261206 })('multiples of 1e-6 below 1e6', (xs) => {
+    expect(jsonWithSha256(xs)).toEqual(reference(xs));
+    const pairs = xs.map((x, i) => [x, xs[xs.length - 1 - i]]);
+    expect(jsonWithSha256(pairs)).toEqual(reference(pairs));
+  });
+
   test.prop([fc.jsonValue()], { numRuns: 300, seed: 20261204 })('any JSON value (objects, arrays, strings, nesting)', (v) => {
     const made = jsonWithSha256(v);
     const ref = reference(v);
