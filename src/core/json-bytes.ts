@@ -1,7 +1,7 @@
 /**
  * JSON text written straight into bytes: the same text as `JSON.stringify(value)` for the plain
  * data a track is made of (objects, arrays, strings, finite numbers, booleans, null), about
- * twice as fast on a track, because most of a track is numbers with at most nine decimals and
+ * three times as fast on a track, because most of a track is numbers with at most nine decimals and
  * those are written from integers here instead of through the general double-to-text routine.
  *
  * Why the text is the same: `JSON.stringify` writes a number as the shortest decimal that reads
