@@ -93,64 +93,17 @@ class JsonWriter {
       const k = Math.round(a * SCALE);
       if (k / SCALE === a && k < MAX_DIGITS_VALUE) {
         this.reserve(FRACTION_DIGITS + 18);
-        if (x < 0) this.bytes[this.length++] = 0x2d;
+        const b = this.bytes;
+        let at = this.length;
+        if (x < 0) b[at++] = 0x2d;
         const whole = Math.floor(k / SCALE);
-        const fraction = k - whole * SCALE;
-        this.unsigned(whole);
-        if (fraction !== 0) this.fraction(fraction);
+        const fraction = (k - whole * SCALE) | 0;
+        at = putUnsigned(b, at, whole);
+        this.length = fraction === 0 ? at : putDecimals(b, at, fraction, FRACTION_DIGITS);
         return;
       }
     }
     this.ascii(String(x));
-  }
-
-  // a non-negative integer below 1e6, in decimal (below 10 000 from the table)
-  private unsigned(v: number): void {
-    const b = this.bytes;
-    if (v < SMALL) {
-      const n = SMALL_LENGTH[v];
-      const from = 4 * v;
-      let at = this.length;
-      for (let k = 0; k < n; k++) b[at++] = SMALL_DIGITS[from + k];
-      this.length = at;
-      return;
-    }
-    let digits = 1;
-    for (let t = v; t >= 10; t = (t / 10) | 0) digits++;
-    let at = this.length + digits;
-    this.length = at;
-    for (let t = v; digits > 0; digits--) {
-      const q = (t / 10) | 0;
-      b[--at] = 0x30 + (t - q * 10);
-      t = q;
-    }
-  }
-
-  // '.' and the nine decimals of 0 < f < 1e9 (below 2^31: integer arithmetic), trailing zeros dropped
-  private fraction(f: number): void {
-    let digits = FRACTION_DIGITS;
-    let t = f | 0;
-    // most numbers of a track have 3 or 6 decimals
-    if (t % 1_000_000 === 0) {
-      t = (t / 1_000_000) | 0;
-      digits = 3;
-    } else if (t % 1000 === 0) {
-      t = (t / 1000) | 0;
-      digits = 6;
-    }
-    for (let q = (t / 10) | 0; t === q * 10; q = (t / 10) | 0) {
-      t = q;
-      digits--;
-    }
-    const b = this.bytes;
-    b[this.length] = 0x2e;
-    let at = this.length + 1 + digits;
-    this.length = at;
-    for (let d = digits; d > 0; d--) {
-      const q = (t / 10) | 0;
-      b[--at] = 0x30 + (t - q * 10);
-      t = q;
-    }
   }
 
   value(v: unknown): void {
@@ -307,10 +260,9 @@ const POINT_ROOM = 2 * NUMBER_ROOM + 4;
  * and the six-decimal profiles: most of a track), the same text as `JSON.stringify` (see the top
  * of this file; the grid test is `k / 1e6 === |x|`); returns the position after it, or -1 for
  * any other number (then what was written is garbage the caller overwrites). Writes up to 3 bytes
- * beyond the text (whole 4-byte table entries): the caller reserved NUMBER_ROOM. Too large for V8
- * to inline (692 bytes of bytecode, the limit is 460), so the number is boxed for the call; a
- * variant taking the array and the index instead, which boxes nothing, measured slower (0.47-0.50
- * against 0.43 ms for a default track's bytes and sha256, both in one process).
+ * beyond the text (whole 4-byte table entries): the caller reserved NUMBER_ROOM. Kept small
+ * (358 bytes of bytecode; V8 inlines up to 460) so that it is inlined into the array loops and
+ * the double read from an array is not boxed for a call.
  */
 function putGridNumber(b: Uint8Array, at: number, x: number): number {
   if (x === 0) {
@@ -327,38 +279,44 @@ function putGridNumber(b: Uint8Array, at: number, x: number): number {
   }
   if (x < 0) b[at++] = 0x2d;
   const whole = a | 0;
-  if (whole < SMALL) {
-    const from = 4 * whole;
+  at = putUnsigned(b, at, whole);
+  // six decimals, not on the millimetre grid
+  if (micro !== 0) return putDecimals(b, at, (micro - whole * 1e6) | 0, 6);
+  const milli = m - whole * 1000;
+  if (milli === 0) return at;
+  const from = 4 * milli;
+  b[at] = MILLI_TEXT[from];
+  b[at + 1] = MILLI_TEXT[from + 1];
+  b[at + 2] = MILLI_TEXT[from + 2];
+  b[at + 3] = MILLI_TEXT[from + 3];
+  return at + MILLI_LENGTH[milli];
+}
+
+// 0 <= v < 2^31 in decimal at b[at] (below 10 000 as a whole 4-byte table entry: up to 3 bytes
+// beyond the digits are written); returns the position after the digits
+function putUnsigned(b: Uint8Array, at: number, v: number): number {
+  if (v < SMALL) {
+    const from = 4 * v;
     b[at] = SMALL_DIGITS[from];
     b[at + 1] = SMALL_DIGITS[from + 1];
     b[at + 2] = SMALL_DIGITS[from + 2];
     b[at + 3] = SMALL_DIGITS[from + 3];
-    at += SMALL_LENGTH[whole];
-  } else {
-    let digits = 5;
-    for (let t = whole; t >= 100_000; t = (t / 10) | 0) digits++;
-    at += digits;
-    for (let t = whole, k = at; k > at - digits; ) {
-      const q = (t / 10) | 0;
-      b[--k] = 0x30 + (t - q * 10);
-      t = q;
-    }
+    return at + SMALL_LENGTH[v];
   }
-  if (micro === 0) {
-    const milli = m - whole * 1000;
-    if (milli !== 0) {
-      const from = 4 * milli;
-      b[at] = MILLI_TEXT[from];
-      b[at + 1] = MILLI_TEXT[from + 1];
-      b[at + 2] = MILLI_TEXT[from + 2];
-      b[at + 3] = MILLI_TEXT[from + 3];
-      at += MILLI_LENGTH[milli];
-    }
-    return at;
+  let digits = 5;
+  for (let t = v; t >= 100_000; t = (t / 10) | 0) digits++;
+  const end = at + digits;
+  for (let t = v, k = end; k > at; ) {
+    const q = (t / 10) | 0;
+    b[--k] = 0x30 + (t - q * 10);
+    t = q;
   }
-  // six decimals, the last not 0 after dropping trailing zeros (micro is not on the millimetre grid)
-  let t = micro - whole * 1e6;
-  let digits = 6;
+  return end;
+}
+
+// '.' and the `digits` decimals of 0 < t < 10^digits at b[at], trailing zeros dropped; returns
+// the position after them
+function putDecimals(b: Uint8Array, at: number, t: number, digits: number): number {
   for (let q = (t / 10) | 0; t === q * 10; q = (t / 10) | 0) {
     t = q;
     digits--;
